@@ -1,0 +1,49 @@
+#!/usr/bin/env bash
+# npm test: the same set-up as npm start against a throwaway database, then lint,
+# type-check, unit, API and browser tests. Usage: npm test [-- unit|api|browser|static]
+set -euo pipefail
+cd "$(dirname "$0")/.."
+only="${1:-all}"
+bash scripts/ensure-deps.sh
+if [ ! -x /usr/bin/chromium ] && { [ "$only" = all ] || [ "$only" = browser ]; }; then
+  echo "[test] installing Debian's chromium"
+  DEBIAN_FRONTEND=noninteractive apt-get update -qq >/dev/null && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null
+fi
+bash scripts/db.sh knotwork >/dev/null
+testdb="knotwork_test_$$"
+KW_DB_ACTION=create bash scripts/db.sh "$testdb" >/dev/null
+server_pid=""
+cleanup() {
+  [ -n "$server_pid" ] && kill "$server_pid" 2>/dev/null || true
+  [ -n "${fakes_started:-}" ] && KW_FAKES_DIR=".data/fakes-test-$$" bash scripts/fakes.sh stop >/dev/null 2>&1 || true
+  KW_DB_ACTION=drop bash scripts/db.sh "$testdb" >/dev/null 2>&1 || true
+}
+trap cleanup EXIT
+if [ -f scripts/fakes.sh ]; then
+  port_base=$(( 3100 + ($$ % 400) ))
+  export KW_APP_WEBHOOK_URL="http://127.0.0.1:$port_base/api/webhooks/stripe" KW_FAKES_DIR=".data/fakes-test-$$"
+  bash scripts/fakes.sh >/dev/null && fakes_started=1
+fi
+. scripts/env.sh "$testdb"
+[ -n "${KW_FAKES_DIR:-}" ] && [ -f "$KW_FAKES_DIR/fakes.env" ] && { set -a; . "$KW_FAKES_DIR/fakes.env"; set +a; }
+npx tsx scripts/migrate.ts >/dev/null
+npx tsx scripts/seed.ts >/dev/null
+
+if [ "$only" = all ] || [ "$only" = static ]; then
+  echo "[test] lint"; npx eslint .
+  echo "[test] type-check"; npm run -s typecheck
+fi
+if [ "$only" = all ] || [ "$only" = unit ]; then
+  echo "[test] unit"; npx vitest run --project unit
+fi
+if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ]; then
+  echo "[test] building"; npx nuxt build > .data/build-test.log 2>&1 || { tail -40 .data/build-test.log; exit 1; }
+  port="${port_base:-$(( 3100 + ($$ % 400) ))}"
+  export KW_BASE_URL="http://127.0.0.1:$port" NUXT_TRUST_PROXY=1
+  HOST=127.0.0.1 PORT="$port" node .output/server/index.mjs > ".data/server-test.log" 2>&1 &
+  server_pid=$!
+  for _ in $(seq 1 60); do curl -sf "$KW_BASE_URL/signin" >/dev/null && break; sleep 0.5; done
+  if [ "$only" = all ] || [ "$only" = api ]; then echo "[test] api"; npx vitest run --project api; fi
+  if [ "$only" = all ] || [ "$only" = browser ]; then echo "[test] browser"; npx playwright test; fi
+fi
+echo "[test] all requested suites passed"

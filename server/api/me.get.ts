@@ -1,0 +1,6 @@
+import { describeMe } from '../services/me'
+
+export default defineEventHandler(async (event) => {
+  const { user } = await requireUser(event)
+  return describeMe(user)
+})

@@ -1,0 +1,6 @@
+import { permissionsOf } from '../../../../shared/permissions'
+
+export default defineEventHandler(async (event) => {
+  const { org, role } = await requireMember(event)
+  return { id: org.id, slug: org.slug, name: org.name, role, permissions: permissionsOf(role) }
+})

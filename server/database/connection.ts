@@ -1,0 +1,14 @@
+import { Sequelize } from 'sequelize'
+import pg from 'pg'
+
+// NUMERIC and BIGINT stay strings (pg's default): table values never pass through floats.
+export function createSequelize(url: string, poolMax = 10): Sequelize {
+  if (!url) throw new Error('No database URL: start through `npm start` (scripts/start.sh) or set NUXT_DATABASE_URL')
+  return new Sequelize(url, {
+    dialect: 'postgres',
+    dialectModule: pg,
+    logging: false,
+    pool: { max: poolMax, min: 0, idle: 10_000 },
+    define: { underscored: true, timestamps: true },
+  })
+}

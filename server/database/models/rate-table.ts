@@ -1,0 +1,34 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import type { Axis, AxisUnit, TableKind, ValueUnit } from '../../../shared/tables'
+
+export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAttributes<RateTable>> {
+  declare id: CreationOptional<string>
+  declare orgId: string
+  declare name: string
+  declare kind: TableKind
+  declare axis: Axis
+  declare axisUnit: CreationOptional<AxisUnit>
+  declare valueUnit: CreationOptional<ValueUnit>
+  declare description: CreationOptional<string>
+  declare tags: CreationOptional<string[]>
+  declare createdBy: string | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+
+  static setup(sequelize: Sequelize) {
+    RateTable.init({
+      id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
+      orgId: { type: DataTypes.UUID, allowNull: false },
+      name: { type: DataTypes.TEXT, allowNull: false },
+      kind: { type: DataTypes.TEXT, allowNull: false },
+      axis: { type: DataTypes.TEXT, allowNull: false },
+      axisUnit: { type: DataTypes.TEXT, defaultValue: 'years' },
+      valueUnit: { type: DataTypes.TEXT, defaultValue: 'per-unit' },
+      description: { type: DataTypes.TEXT, defaultValue: '' },
+      tags: { type: DataTypes.ARRAY(DataTypes.TEXT), defaultValue: [] },
+      createdBy: { type: DataTypes.UUID, allowNull: true },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    }, { sequelize, tableName: 'rate_tables' })
+  }
+}

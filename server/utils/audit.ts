@@ -1,0 +1,34 @@
+import type { H3Event } from 'h3'
+import type { Transaction } from 'sequelize'
+import type { AuditContent } from '../lib/audit-chain'
+import { appendAuditEvent } from '../lib/audit-writer'
+
+export interface AuditInput {
+  orgId?: string | null
+  action: string
+  objectType?: string
+  objectId?: string
+  outcome?: 'ok' | 'denied' | 'failed'
+  detail?: Record<string, unknown>
+  actor?: { id: string; email: string } | null
+}
+
+/** Appends an audit event; pass the change's transaction so both commit together. */
+export async function audit(event: H3Event | null, input: AuditInput, transaction?: Transaction): Promise<void> {
+  const actor = input.actor !== undefined ? input.actor : (event?.context.auth?.user ?? null)
+  const content: AuditContent = {
+    orgId: input.orgId ?? null,
+    actorId: actor?.id ?? null,
+    actorEmail: actor?.email ?? null,
+    action: input.action,
+    objectType: input.objectType ?? null,
+    objectId: input.objectId ?? null,
+    outcome: input.outcome ?? 'ok',
+    requestId: event?.context.requestId ?? null,
+    ip: event ? clientAddress(event) : null,
+    detail: input.detail ?? {},
+    at: new Date().toISOString(),
+  }
+  if (transaction) await appendAuditEvent(useDb(), content, transaction)
+  else await inTransaction(t => appendAuditEvent(useDb(), content, t))
+}

@@ -1,0 +1,9 @@
+import type { Permission } from '../permissions'
+
+declare module '#app' {
+  interface PageMeta {
+    public?: boolean
+    permission?: Permission
+  }
+}
+export {}

@@ -1,0 +1,104 @@
+// Shared helpers for API tests: they run against the built server and the throwaway
+// database that scripts/test.sh prepared (KW_BASE_URL, KW_DATABASE_OWNER_URL).
+import { randomBytes } from 'node:crypto'
+import { Sequelize } from 'sequelize'
+import pg from 'pg'
+
+export const BASE = process.env.KW_BASE_URL ?? 'http://127.0.0.1:3000'
+export const DEMO_PASSWORD = 'knotwork-demo-2026'
+export const DEMO = {
+  admin: 'hazel.okafor@larkspur.example',
+  actuary: 'tomas.varga@larkspur.example',
+  analyst: 'priya.raman@larkspur.example',
+  auditor: 'greta.lind@larkspur.example',
+  both: 'felix.amari@fenwickrowe.example',
+  otherAdmin: 'oona.pike@fenwickrowe.example',
+} as const
+export const LARKSPUR = 'larkspur-mutual'
+export const FENWICK = 'fenwick-rowe'
+
+let ipCounter = 0
+/** A distinct client address per client (the test server trusts X-Forwarded-For), so throttling tests stay apart. */
+function nextAddress() {
+  ipCounter++
+  return `10.${(process.pid >> 8) & 255}.${process.pid & 255}.${ipCounter % 250 + 1}`
+}
+
+export interface Reply<T = unknown> { status: number; body: T; headers: Headers }
+
+/** A person's browser: keeps the session cookie between requests. */
+export class Client {
+  cookie = ''
+  constructor(readonly address = nextAddress()) {}
+
+  async req<T = unknown>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply<T>> {
+    const isRaw = body instanceof Uint8Array || body instanceof FormData || typeof body === 'string'
+    const res = await fetch(BASE + path, {
+      method,
+      headers: {
+        ...(body !== undefined && !isRaw ? { 'content-type': 'application/json' } : {}),
+        ...(this.cookie ? { cookie: this.cookie } : {}),
+        'x-forwarded-for': this.address,
+        'accept': 'application/json',
+        ...headers,
+      },
+      body: body === undefined ? undefined : isRaw ? (body as BodyInit) : JSON.stringify(body),
+      redirect: 'manual',
+    })
+    const set = res.headers.getSetCookie()
+    for (const c of set) {
+      const [pair] = c.split(';')
+      const [name] = pair!.split('=')
+      const rest = this.cookie.split('; ').filter(p => p && !p.startsWith(`${name}=`))
+      this.cookie = /=\s*$/.test(pair!) || /Max-Age=0/i.test(c) ? rest.join('; ') : [...rest, pair].join('; ')
+    }
+    const text = await res.text()
+    let parsed: unknown = text
+    try { parsed = text ? JSON.parse(text) : null } catch { /* not JSON */ }
+    return { status: res.status, body: parsed as T, headers: res.headers }
+  }
+
+  get<T = unknown>(path: string) { return this.req<T>('GET', path) }
+  post<T = unknown>(path: string, body?: unknown, headers?: Record<string, string>) { return this.req<T>('POST', path, body ?? {}, headers) }
+
+  async login(email: string, password = DEMO_PASSWORD) {
+    const r = await this.post('/api/auth/login', { email, password })
+    if (r.status !== 200) throw new Error(`login ${email} answered ${r.status}: ${JSON.stringify(r.body)}`)
+    return this
+  }
+}
+
+export async function signedIn(email: string, password = DEMO_PASSWORD) {
+  return new Client().login(email, password)
+}
+
+export function uniqueEmail(prefix = 'person') {
+  return `${prefix}-${randomBytes(5).toString('hex')}@example.test`
+}
+
+/** A new organisation with its admin signed in (sign-up). */
+export async function freshOrg(name = `Test Org ${randomBytes(3).toString('hex')}`) {
+  const client = new Client()
+  const email = uniqueEmail('admin')
+  const password = 'correct horse battery staple'
+  const r = await client.post<{ memberships: { org: { slug: string; id: string } }[] }>('/api/auth/signup', { name: 'Test Admin', email, password, organisation: name })
+  if (r.status !== 201) throw new Error(`signup answered ${r.status}: ${JSON.stringify(r.body)}`)
+  return { client, email, password, slug: r.body.memberships[0]!.org.slug, orgId: r.body.memberships[0]!.org.id }
+}
+
+let sequelize: Sequelize | undefined
+/** Owner connection for assertions and for tampering "behind the app's back". */
+export function ownerDb(): Sequelize {
+  sequelize ??= new Sequelize(process.env.KW_DATABASE_OWNER_URL!, { dialect: 'postgres', dialectModule: pg, logging: false, pool: { max: 2 } })
+  return sequelize
+}
+
+export async function closeOwnerDb() {
+  await sequelize?.close()
+  sequelize = undefined
+}
+
+export async function count(sql: string, replacements: Record<string, unknown> = {}): Promise<number> {
+  const [rows] = await ownerDb().query(`SELECT count(*)::int AS n FROM (${sql}) q`, { replacements })
+  return (rows as { n: number }[])[0]!.n
+}

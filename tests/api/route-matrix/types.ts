@@ -1,0 +1,30 @@
+// One expectation per route and caller. 'pass' means the caller got past authentication and
+// authorisation (any status but 401, 403 and 404): validation errors on an empty body count as pass.
+export type Expect = number | 'pass'
+export type Caller = 'anonymous' | 'admin' | 'actuary' | 'analyst' | 'auditor' | 'otherOrg'
+
+export interface RouteExpectation {
+  /** Concrete path to call; [org] becomes the Larkspur slug (or Fenwick & Rowe's for otherOrg callers of non-org routes). */
+  path?: (ctx: MatrixContext) => string | Promise<string>
+  body?: unknown
+  expect: Record<Caller, Expect>
+}
+
+export interface MatrixContext {
+  org: string
+  /** ids of demo objects in Larkspur, looked up once (features add what they need) */
+  ids: Record<string, string>
+}
+
+export const ROLE_ONLY = (allowed: Caller[]): Record<Caller, Expect> => ({
+  anonymous: 401,
+  admin: allowed.includes('admin') ? 'pass' : 403,
+  actuary: allowed.includes('actuary') ? 'pass' : 403,
+  analyst: allowed.includes('analyst') ? 'pass' : 403,
+  auditor: allowed.includes('auditor') ? 'pass' : 403,
+  otherOrg: 404,
+})
+
+export const EVERY_MEMBER = ROLE_ONLY(['admin', 'actuary', 'analyst', 'auditor'])
+export const SIGNED_IN = { anonymous: 401, admin: 'pass', actuary: 'pass', analyst: 'pass', auditor: 'pass', otherOrg: 'pass' } as Record<Caller, Expect>
+export const PUBLIC = { anonymous: 'pass', admin: 'pass', actuary: 'pass', analyst: 'pass', auditor: 'pass', otherOrg: 'pass' } as Record<Caller, Expect>
