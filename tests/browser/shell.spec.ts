@@ -1,0 +1,72 @@
+import { expect, test } from '@playwright/test'
+import { PEOPLE, shot, signIn, useOwnAddress } from './helpers'
+
+test('the sign-in page explains itself and shows the caution', async ({ page }) => {
+  await useOwnAddress(page)
+  await page.goto('/')
+  await expect(page).toHaveURL(/\/signin/)
+  await expect(page.getByRole('heading', { name: 'Sign in' })).toBeVisible()
+  await expect(page.getByRole('note')).toContainText('qualified actuary')
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await expect(page.getByText('Enter an e-mail address')).toBeVisible()
+  await shot(page, 'signin')
+})
+
+test('a wrong password gets a plain message and no session', async ({ page }) => {
+  await useOwnAddress(page)
+  await page.goto('/signin')
+  await page.getByLabel('E-mail').fill(PEOPLE.analyst)
+  await page.getByLabel('Password').fill('not the password')
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await expect(page.getByRole('alert')).toContainText('do not match')
+  await expect(page).toHaveURL(/\/signin/)
+})
+
+const NAV: Record<keyof typeof PEOPLE, { shows: string[]; hides: string[] }> = {
+  admin: { shows: ['nav-tables', 'nav-members'], hides: [] },
+  actuary: { shows: ['nav-tables'], hides: ['nav-members'] },
+  analyst: { shows: ['nav-tables'], hides: ['nav-members'] },
+  auditor: { shows: ['nav-tables'], hides: ['nav-members'] },
+  both: { shows: ['nav-tables'], hides: ['nav-members'] },
+}
+
+for (const role of ['admin', 'actuary', 'analyst', 'auditor'] as const) {
+  test(`${role}: sees the navigation of the role, then signs out`, async ({ page }) => {
+    await signIn(page, PEOPLE[role])
+    await expect(page).toHaveURL(/\/orgs\/larkspur-mutual/)
+    await expect(page.getByRole('heading', { name: 'Tables', exact: true })).toBeVisible()
+    for (const id of NAV[role].shows) await expect(page.getByTestId(id)).toBeVisible()
+    for (const id of NAV[role].hides) await expect(page.getByTestId(id)).toHaveCount(0)
+    await expect(page.getByRole('note')).toContainText('qualified actuary')
+    await shot(page, `home-${role}`)
+    await page.getByTestId('sign-out').click()
+    await expect(page).toHaveURL(/\/signin/)
+    await page.goto('/orgs/larkspur-mutual')
+    await expect(page).toHaveURL(/\/signin/)
+  })
+}
+
+test('a role without the permission cannot open the members page by URL', async ({ page }) => {
+  await signIn(page, PEOPLE.analyst)
+  const response = await page.goto('/orgs/larkspur-mutual/members')
+  expect(response?.status()).toBe(403)
+  await expect(page.getByText('Not open to your role')).toBeVisible()
+})
+
+test('a person in two organisations switches between them', async ({ page }) => {
+  await signIn(page, PEOPLE.both)
+  const switcher = page.getByTestId('org-switcher')
+  await expect(switcher).toBeVisible()
+  await switcher.selectOption('fenwick-rowe')
+  await expect(page).toHaveURL(/\/orgs\/fenwick-rowe/)
+  await expect(page.getByText('Basis tables of Fenwick & Rowe Consulting')).toBeVisible()
+  await shot(page, 'home-switched')
+  await switcher.selectOption('larkspur-mutual')
+  await expect(page).toHaveURL(/\/orgs\/larkspur-mutual/)
+})
+
+test('another organisation answers 404', async ({ page }) => {
+  await signIn(page, PEOPLE.admin)
+  const response = await page.goto('/orgs/fenwick-rowe')
+  expect(response?.status()).toBe(404)
+})
