@@ -1,0 +1,134 @@
+/**
+ * Engine benchmark (run: npx tsx bench/engine.bench.ts, or npm run bench:engine). Prints figures; asserts nothing.
+ * Setup: 121 knots at x = 0, 1.2, ..., 144 (a curve quoted every 1.2 months over 12 years), filled every 0.01 month
+ * from 0 to 144: 14,401 points, precision 40 significant digits. For each method: median time of fit + evaluation
+ * (the result strings included), points per second, and the efficiency ratio
+ *   (time per point) / (time of the bare decimal operations a cubic Horner evaluation needs per point:
+ *    1 sub + 3 mul + 3 add on Decimal at 40 digits, timed in the same run on the same operands).
+ * Diagnostics and money are timed separately. Floats appear here only for timing.
+ */
+import { cpus, loadavg } from 'node:os'
+import { setFlagsFromString } from 'node:v8'
+import { runInNewContext } from 'node:vm'
+import Decimal from 'decimal.js'
+import { computeDiagnostics } from '../server/engine/diagnostics'
+import { computeMoney } from '../server/engine/money'
+import { fillCore } from '../server/engine/pipeline'
+import type { FillRequest, MethodId, TransformId } from '../server/engine/types'
+
+const RUNS = 9
+const KNOTS = 121
+const D = Decimal.clone({ precision: 40, rounding: Decimal.ROUND_HALF_EVEN })
+
+function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b)
+  return s[Math.floor(s.length / 2)]!
+}
+
+// Collect garbage before each timed run so one run does not pay for the previous one's garbage.
+setFlagsFromString('--expose-gc')
+const collect = runInNewContext('gc') as () => void
+
+function time(fn: () => void, runs = RUNS): number {
+  fn() // warm-up
+  const t: number[] = []
+  for (let r = 0; r < runs; r += 1) {
+    collect()
+    const t0 = performance.now()
+    fn()
+    t.push(performance.now() - t0)
+  }
+  return median(t)
+}
+
+// Knots: a smooth rising curve r(x) = 0.02 + 0.015 (1 - exp(-x / 40)) + 0.002 sin(x / 9), 8 significant digits.
+const knots = Array.from({ length: KNOTS }, (_, i) => {
+  const x = new D(i).times('1.2')
+  const r = new D('0.02').plus(new D('0.015').times(new D(1).minus(x.div(40).neg().exp()))).plus(new D('0.002').times(x.div(9).sin()))
+  return { x: x.toString(), y: r.toSD(8).toString() }
+})
+const base: FillRequest = { knots, method: 'cubic-natural', grid: { from: '0', to: '144', step: '0.01' }, precision: 40, kind: 'other' }
+
+// Baseline: 1 sub + 3 mul + 3 add per point on the natural spline's own coefficients, at 40 digits, piece located beforehand.
+const core = fillCore(base)
+const N = core.points.xs.length
+const coefs = core.pp.coefs.map(c => c.map(v => new D(v.toSD(40))))
+const starts = core.pp.breaks.map(b => new D(b))
+const pieceOf: number[] = []
+const xs40 = core.points.xs.map(x => new D(x))
+{
+  let i = 0
+  for (const x of xs40) {
+    while (i < coefs.length - 1 && x.gte(starts[i + 1]!)) i += 1
+    pieceOf.push(i)
+  }
+}
+function baselineRun(): void {
+  for (let k = 0; k < N; k += 1) {
+    const c = coefs[pieceOf[k]!]!
+    const t = xs40[k]!.minus(starts[pieceOf[k]!]!)
+    c[3]!.times(t).plus(c[2]!).times(t).plus(c[1]!).times(t).plus(c[0]!)
+  }
+}
+
+/** Time fn and the baseline in alternate runs (the machine may be shared: adjacent runs see the same load). Medians and minima. */
+function timeAgainstBaseline(fn: () => void, runs = RUNS): { ms: number, baseline: number, msMin: number, baselineMin: number } {
+  fn()
+  baselineRun()
+  const a: number[] = []
+  const b: number[] = []
+  for (let r = 0; r < runs; r += 1) {
+    collect()
+    let t0 = performance.now()
+    baselineRun()
+    b.push(performance.now() - t0)
+    collect()
+    t0 = performance.now()
+    fn()
+    a.push(performance.now() - t0)
+  }
+  return { ms: median(a), baseline: median(b), msMin: Math.min(...a), baselineMin: Math.min(...b) }
+}
+
+const baselineMs = time(baselineRun, 15)
+
+const methods: MethodId[] = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima']
+const rows: string[][] = []
+function row(method: MethodId, transform: TransformId, runs: number, withChecks: boolean): void {
+  const request: FillRequest = { ...base, method, transform }
+  const t = timeAgainstBaseline(() => fillCore(request), runs)
+  let checks = '-'
+  if (withChecks) {
+    const core = fillCore(request)
+    checks = time(() => { computeDiagnostics(core); computeMoney(core) }, 3).toFixed(1)
+  }
+  rows.push([
+    method, transform,
+    `${t.ms.toFixed(1)} (${t.msMin.toFixed(1)})`,
+    Math.round(N / (t.ms / 1000)).toLocaleString('en-GB'),
+    `${t.baseline.toFixed(1)} (${t.baselineMin.toFixed(1)})`,
+    `${(t.ms / t.baseline).toFixed(2)} (${(t.msMin / t.baselineMin).toFixed(2)})`,
+    checks,
+  ])
+}
+for (const method of methods) row(method, 'none', RUNS, true)
+for (const transform of ['log', 'logit', 'cumulative-hazard'] as TransformId[]) row('cubic-natural', transform, 3, false)
+const curve: FillRequest = { ...base, kind: 'spot-rate' }
+const curveCore = fillCore(curve)
+const curveChecks = time(() => { computeDiagnostics(curveCore); computeMoney(curveCore) }, 3)
+
+const cpu = cpus()
+console.log(`Knotwork engine benchmark, ${new Date().toISOString()}`)
+console.log(`Node ${process.version}, ${cpu.length} cores (${cpu[0]?.model ?? 'unknown CPU'}), load average at end ${loadavg().map(l => l.toFixed(2)).join(' ')}`)
+console.log(`Setup: ${KNOTS} knots at x = 0, 1.2, ..., 144; grid 0..144 step 0.01 = ${N} points; precision 40 (working ${core.spec.workingPrecision}); median of ${RUNS} runs`)
+console.log(`Baseline (1 sub + 3 mul + 3 add on Decimal at 40 digits, per point, ${N} points): ${baselineMs.toFixed(1)} ms = ${(baselineMs * 1000 / N).toFixed(3)} us/point at start;`)
+console.log('Each row also times the baseline in alternate runs (column baseline ms); ratio = fit+eval / that baseline.')
+console.log('')
+const head = ['method', 'transform', 'fit+eval ms (min)', 'points/s', 'baseline ms (min)', 'ratio (min/min)', 'diagnostics+money ms']
+const widths = head.map((h, j) => Math.max(h.length, ...rows.map(r => r[j]!.length)))
+const line = (r: string[]) => r.map((c, j) => (j < 2 ? c.padEnd(widths[j]!) : c.padStart(widths[j]!))).join('  ')
+console.log(line(head))
+for (const r of rows) console.log(line(r))
+console.log('')
+console.log(`Curve checks (kind spot-rate: forward rates on all ${N} points, one ln each, plus money), natural cubic: ${curveChecks.toFixed(1)} ms`)
+console.log('Targets: natural cubic fit+eval at 40 digits <= 60 ms; ratio <= 2.')

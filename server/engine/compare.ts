@@ -1,0 +1,87 @@
+import { decimalContext, roundTo, type Dec } from './decimal'
+import { EngineError } from './errors'
+import { fill } from './fill'
+import type { CompareEntry, CompareResult, FillRequest, FillResult, MethodSpec, MoneyDifference, PairDifference } from './types'
+
+const MAX_METHODS = 12
+
+function defaultLabel(spec: MethodSpec, request: FillRequest): string {
+  const parts: string[] = [spec.method]
+  const opts = Object.entries(spec.options ?? {}).map(([k, v]) => `${k}=${v}`)
+  if (opts.length) parts.push(`(${opts.join(', ')})`)
+  const transform = spec.transform ?? request.transform
+  if (transform && transform !== 'none') parts.push(`on ${transform}`)
+  return parts.join(' ')
+}
+
+/**
+ * Fill the same request with several methods and set the results side by side: the largest absolute difference of every pair
+ * (and where), and every money figure against a baseline (default the first method), as absolute and percent differences.
+ * A method that cannot fill the request is reported with its message instead of failing the whole comparison.
+ */
+export function compare(request: FillRequest, methods: MethodSpec[], options: { baseline?: string } = {}): CompareResult {
+  if (!Array.isArray(methods) || methods.length === 0) throw new EngineError('invalid-request', 'Choose at least one method to compare.')
+  if (methods.length > MAX_METHODS) throw new EngineError('invalid-request', `At most ${MAX_METHODS} methods can be compared at once.`)
+  const seen = new Map<string, number>()
+  const entries: CompareEntry[] = methods.map((spec) => {
+    let label = spec.label ?? defaultLabel(spec, request)
+    const n = (seen.get(label) ?? 0) + 1
+    seen.set(label, n)
+    if (n > 1) label = `${label} #${n}`
+    try {
+      const result = fill({ ...request, method: spec.method, options: spec.options ?? {}, transform: spec.transform ?? request.transform })
+      return { label, ok: true as const, result }
+    }
+    catch (error) {
+      if (error instanceof EngineError) return { label, ok: false as const, error: error.message, code: error.code }
+      throw error
+    }
+  })
+  const baselineLabel = options.baseline ?? entries[0]!.label
+  const baseline = entries.find(e => e.label === baselineLabel || (e.ok && e.result.spec.method === baselineLabel))
+  if (!baseline) throw new EngineError('invalid-request', `Baseline '${baselineLabel}' is not one of the compared methods.`)
+  const done = entries.filter((e): e is CompareEntry & { ok: true } => e.ok)
+  const D = decimalContext((done[0]?.result.spec.workingPrecision) ?? 50)
+  const pairs: PairDifference[] = []
+  for (let i = 0; i < done.length; i += 1) {
+    for (let j = i + 1; j < done.length; j += 1) pairs.push(pairDifference(D, done[i]!.label, done[i]!.result, done[j]!.label, done[j]!.result))
+  }
+  const money = baseline.ok ? done.filter(e => e !== baseline).flatMap(e => moneyDifferences(D, baseline.result, e.label, e.result)) : []
+  return { baseline: baseline.label, entries, pairs, money }
+}
+
+/** max_k |y_a(x_k) - y_b(x_k)| over the common output points. */
+function pairDifference(D: ReturnType<typeof decimalContext>, la: string, a: FillResult, lb: string, b: FillResult): PairDifference {
+  let worst: Dec = new D(0)
+  let at: string | null = null
+  a.points.forEach((p, k) => {
+    const d = new D(p.y).minus(new D(b.points[k]!.y)).abs()
+    if (d.gt(worst)) {
+      worst = d
+      at = p.x
+    }
+  })
+  return { a: la, b: lb, maxAbsDifference: roundTo(worst, a.spec.precision).toString(), at }
+}
+
+/** value - baseline, and 100 (value - baseline) / baseline when the baseline is not zero. */
+function moneyDifferences(D: ReturnType<typeof decimalContext>, base: FillResult, label: string, other: FillResult): MoneyDifference[] {
+  const P = base.spec.precision
+  return base.money.figures.map((figure) => {
+    const match = other.money.figures.find(f => f.key === figure.key)
+    const value = match?.value ?? null
+    if (figure.value === null || value === null) {
+      return { label, key: figure.key, baseline: figure.value, value, absolute: null, percent: null }
+    }
+    const diff = new D(value).minus(new D(figure.value))
+    const b = new D(figure.value)
+    return {
+      label,
+      key: figure.key,
+      baseline: figure.value,
+      value,
+      absolute: roundTo(diff, P).toString(),
+      percent: b.isZero() ? null : roundTo(diff.div(b).times(100), P).toString(),
+    }
+  })
+}

@@ -1,0 +1,217 @@
+import { roundTo, sign, type Dec } from './decimal'
+import { evaluateValues, type CoreFill } from './pipeline'
+import { hornerDerivative, type PiecewisePolynomial } from './piecewise'
+import type { CurvatureReport, Diagnostics, ForwardReport, Located, MonotonicityReport, RangeReport, Span, TableKind } from './types'
+
+const LIST_LIMIT = 20
+
+/** Shape, range and curve checks of a fill (DOMAIN.md section 4). Kept out of the timed fit-and-evaluate path. */
+export function computeDiagnostics(core: CoreFill): Diagnostics {
+  const order = ascendingOrder(core)
+  const xs = order.map(k => core.points.xs[k]!)
+  const ys = order.map(k => core.values[k]!)
+  const deviation = knotDeviation(core)
+  const P = core.spec.precision
+  return {
+    maxKnotDeviation: deviation.value.toString(),
+    maxKnotDeviationAt: deviation.at,
+    knotsReproduced: deviation.value.isZero(),
+    curvatureSignChanges: curvature(core.pp, P),
+    roughness: roughness(ys, P),
+    monotonicity: monotonicity(core.knots.y, xs, ys),
+    outOfRange: outOfRange(core.spec.kind, xs, ys),
+    forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P) : null,
+    notes: [...core.notes, ...extrapolationNotes(core)],
+  }
+}
+
+function ascendingOrder(core: CoreFill): number[] {
+  const idx = core.points.xs.map((_, k) => k)
+  if (core.points.ascending) return idx
+  return idx.sort((a, b) => core.points.xs[a]!.cmp(core.points.xs[b]!))
+}
+
+/** Each knot re-evaluated through the same path as the output (sweep, inverse transform, rounding), against the given y rounded alike. */
+function knotDeviation(core: CoreFill): { value: Dec, at: string | null } {
+  const again = evaluateValues(core, core.knots.x, true)
+  let worst = core.knots.x[0]!.times(0)
+  let at: string | null = null
+  again.forEach((v, i) => {
+    const d = v.minus(roundTo(core.knots.y[i]!, core.spec.precision)).abs()
+    if (d.gt(worst)) {
+      worst = d
+      at = core.knots.x[i]!.toString()
+    }
+  })
+  return { value: worst, at }
+}
+
+/**
+ * Sign changes of the second derivative of the fitted pieces, read at both ends of every piece (on the method's scale,
+ * i.e. after the transform). A change inside a piece is reported as the span between its knots; a jump across zero at a
+ * knot (quadratic spline, Hermite cubics) as that knot. Values below a noise floor of 10^-precision * max|y| / min(h)^2 count as zero.
+ */
+function curvature(pp: PiecewisePolynomial, precision: number): CurvatureReport {
+  const samples: { x: Dec, value: Dec }[] = []
+  let yMax = pp.endValue.abs()
+  let hMin = pp.breaks[1]!.minus(pp.breaks[0]!)
+  pp.coefs.forEach((c, i) => {
+    const h = pp.breaks[i + 1]!.minus(pp.breaks[i]!)
+    if (h.lt(hMin)) hMin = h
+    if (c[0]!.abs().gt(yMax)) yMax = c[0]!.abs()
+    samples.push({ x: pp.breaks[i]!, value: hornerDerivative(c, h.times(0), 2) })
+    samples.push({ x: pp.breaks[i + 1]!, value: hornerDerivative(c, h, 2) })
+  })
+  const floor = yMax.div(hMin).div(hMin).times(`1e-${precision}`)
+  const at: Span[] = []
+  let prev: { x: Dec, s: number } | null = null
+  for (const sample of samples) {
+    if (sample.value.abs().lte(floor)) continue
+    const s = sign(sample.value)
+    if (prev && s !== prev.s) at.push({ from: prev.x.toString(), to: sample.x.toString() })
+    prev = { x: sample.x, s }
+  }
+  return {
+    basis: 'second derivative of the fitted pieces at both ends of each piece, on the interpolated (transformed) scale',
+    count: at.length,
+    at: at.slice(0, LIST_LIMIT),
+  }
+}
+
+/** Sums of squared second and third differences of the filled values in x order (Whittaker 1923 smoothness measure). */
+function roughness(ys: Dec[], precision: number): Diagnostics['roughness'] {
+  const zero = ys[0]!.times(0)
+  const d1: Dec[] = []
+  for (let k = 1; k < ys.length; k += 1) d1.push(ys[k]!.minus(ys[k - 1]!))
+  const d2: Dec[] = []
+  for (let k = 1; k < d1.length; k += 1) d2.push(d1[k]!.minus(d1[k - 1]!))
+  let s2 = zero
+  let s3 = zero
+  d2.forEach((d, k) => {
+    s2 = s2.plus(d.times(d))
+    if (k > 0) {
+      const t = d.minus(d2[k - 1]!)
+      s3 = s3.plus(t.times(t))
+    }
+  })
+  return {
+    secondDifferences: roundTo(s2, precision).toString(),
+    thirdDifferences: roundTo(s3, precision).toString(),
+    basis: 'plain differences of consecutive filled values in x order (uneven spacing is not rescaled)',
+  }
+}
+
+function turningPoints(ys: Dec[]): number[] {
+  const out: number[] = []
+  let prev = 0
+  for (let k = 1; k < ys.length; k += 1) {
+    const s = sign(ys[k]!.minus(ys[k - 1]!))
+    if (s === 0) continue
+    if (prev !== 0 && s !== prev) out.push(k - 1)
+    prev = s
+  }
+  return out
+}
+
+function monotonicity(knotY: Dec[], xs: Dec[], ys: Dec[]): MonotonicityReport {
+  const knotTurns = turningPoints(knotY)
+  const signs = new Set<number>()
+  for (let i = 1; i < knotY.length; i += 1) signs.add(sign(knotY[i]!.minus(knotY[i - 1]!)))
+  signs.delete(0)
+  const knotDirection = signs.size === 0 ? 'constant' : signs.size === 2 ? 'mixed' : signs.has(1) ? 'increasing' : 'decreasing'
+  const fillTurns = turningPoints(ys)
+  return {
+    knotDirection,
+    knotTurningPoints: knotTurns.length,
+    fillTurningPoints: fillTurns.length,
+    at: fillTurns.slice(0, LIST_LIMIT).map(k => xs[k]!.toString()),
+  }
+}
+
+const RANGE_RULES: Partial<Record<TableKind, { rule: string, bad: (y: Dec) => boolean }>> = {
+  'mortality': { rule: '0 <= q <= 1', bad: y => y.lt(0) || y.gt(1) },
+  'lapse': { rule: '0 <= rate <= 1', bad: y => y.lt(0) || y.gt(1) },
+  'spot-rate': { rule: 'spot rate >= 0 (negative rates flagged) and > -1', bad: y => y.lt(0) },
+  'discount-factor': { rule: '0 < P <= 1 (P > 1 means a negative rate)', bad: y => y.lte(0) || y.gt(1) },
+  'salary': { rule: 'salary scale > 0', bad: y => y.lte(0) },
+}
+
+function outOfRange(kind: TableKind, xs: Dec[], ys: Dec[]): RangeReport {
+  const rule = RANGE_RULES[kind]
+  if (!rule) return { rule: 'no range rule for kind other', count: 0, first: [] }
+  const first: Located[] = []
+  let count = 0
+  ys.forEach((y, k) => {
+    if (!rule.bad(y)) return
+    count += 1
+    if (first.length < LIST_LIMIT) first.push({ x: xs[k]!.toString(), value: y.toString() })
+  })
+  return { rule: rule.rule, count, first }
+}
+
+/**
+ * Forward rates between consecutive points: F = (ln P(t1) - ln P(t2)) / (t2 - t1) (continuous), reported with annual
+ * compounding f = exp(F) - 1 (Hull, Options, Futures and Other Derivatives, ch. 4). Extremes and jumps are located on F,
+ * a monotone map of f, so only the reported figures need exp. ln P = -t ln(1 + r) for spot rates, ln P for discount factors.
+ */
+function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number): ForwardReport {
+  const convention = 'annual compounding between consecutive filled points; located on continuously compounded forwards'
+  const lnP: (Dec | null)[] = ys.map((y, k) => {
+    const t = xs[k]!
+    if (kind === 'spot-rate') return t.isZero() ? t : y.gt(-1) ? y.plus(1).ln().times(t).neg() : null
+    return y.gt(0) ? y.ln() : null
+  })
+  const fwd: { F: Dec, from: Dec, to: Dec }[] = []
+  for (let k = 1; k < xs.length; k += 1) {
+    const a = lnP[k - 1]
+    const b = lnP[k]
+    const dt = xs[k]!.minus(xs[k - 1]!)
+    if (a == null || b == null || dt.isZero()) continue
+    fwd.push({ F: a.minus(b).div(dt), from: xs[k - 1]!, to: xs[k]! })
+  }
+  if (fwd.length === 0) return { convention, minimum: null, negativeCount: 0, negatives: [], largestJump: null }
+  const annual = (F: Dec) => roundTo(F.exp().minus(1), precision).toString()
+  let min = fwd[0]!
+  const negatives: Span[] = []
+  let negativeCount = 0
+  let jump: { size: Dec, at: Dec } | null = null
+  fwd.forEach((f, k) => {
+    if (f.F.lt(min.F)) min = f
+    if (f.F.isNegative() && !f.F.isZero()) {
+      negativeCount += 1
+      if (negatives.length < LIST_LIMIT) negatives.push({ from: f.from.toString(), to: f.to.toString() })
+    }
+    if (k > 0) {
+      const size = f.F.minus(fwd[k - 1]!.F).abs()
+      if (!jump || size.gt(jump.size)) jump = { size, at: f.from }
+    }
+  })
+  const j = jump as { size: Dec, at: Dec } | null
+  let largestJump: ForwardReport['largestJump'] = null
+  if (j) {
+    const k = fwd.findIndex(f => f.from.eq(j.at))
+    const before = fwd[k - 1]!
+    const after = fwd[k]!
+    largestJump = { value: roundTo(after.F.exp().minus(before.F.exp()), precision).toString(), at: j.at.toString() }
+  }
+  return {
+    convention,
+    minimum: { value: annual(min.F), from: min.from.toString(), to: min.to.toString() },
+    negativeCount,
+    negatives,
+    largestJump,
+  }
+}
+
+function extrapolationNotes(core: CoreFill): string[] {
+  const lo = core.pp.breaks[0]!
+  const hi = core.pp.breaks[core.pp.breaks.length - 1]!
+  let below = 0
+  let above = 0
+  for (const x of core.points.xs) {
+    if (x.lt(lo)) below += 1
+    else if (x.gt(hi)) above += 1
+  }
+  if (below + above === 0) return []
+  return [`${below + above} point(s) lie outside the knots [${lo.toString()}, ${hi.toString()}] (${below} below, ${above} above) and were extrapolated by rule '${core.spec.extrapolation}'.`]
+}

@@ -1,0 +1,16 @@
+/**
+ * Knotwork numerical engine: fills sparse basis tables by interpolation in decimal arithmetic.
+ * Pure TypeScript: imports decimal.js and nothing from the framework or the database.
+ */
+export { fill } from './fill'
+export { compare } from './compare'
+export { EngineError, type EngineErrorCode } from './errors'
+export { METHODS, type MethodListing } from './registry'
+export type { OptionDescriptor } from './methods/method'
+export { TRANSFORM_LISTING, type TransformListing } from './transform-listing'
+export { ENGINE_VERSION } from './version'
+export { DEFAULT_PRECISION, MIN_PRECISION, MAX_PRECISION } from './decimal'
+export type * from './types'
+
+/** Caution to show beside every result (OWNER_RULES: safety). */
+export const REVIEW_CAUTION = 'Filled values are a calculation aid. Before use in reserves or prices, they need review by a qualified actuary under the applicable actuarial standards and local regulation.'

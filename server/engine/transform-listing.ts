@@ -1,0 +1,17 @@
+import { TRANSFORMS } from './transforms'
+import type { TransformId } from './types'
+
+export interface TransformListing {
+  id: TransformId
+  label: string
+  domain: string
+  description: string
+}
+
+/** What a client may show about the transforms. */
+export const TRANSFORM_LISTING: readonly TransformListing[] = Object.values(TRANSFORMS).map(t => ({
+  id: t.id,
+  label: t.label,
+  domain: t.domain,
+  description: t.description,
+}))
