@@ -33,14 +33,44 @@ export default defineNuxtConfig({
     databaseUrl: '',
     // NUXT_TRUST_PROXY=1: take the client address from X-Forwarded-For (behind a proxy, and in tests)
     trustProxy: false,
+    // Stripe and SMTP: the real SDKs; local fakes or the real services by configuration alone
+    // (NUXT_STRIPE_SECRET_KEY, NUXT_STRIPE_HOST/PORT/PROTOCOL (empty = api.stripe.com), NUXT_STRIPE_WEBHOOK_SECRET,
+    // NUXT_SMTP_HOST/PORT/SECURE/USER/PASS, NUXT_MAIL_FROM)
+    stripeSecretKey: '',
+    stripeHost: '',
+    stripePort: '',
+    stripeProtocol: '',
+    stripeWebhookSecret: '',
+    smtpHost: '',
+    smtpPort: '',
+    smtpSecure: false,
+    smtpUser: '',
+    smtpPass: '',
+    mailFrom: 'Knotwork <no-reply@knotwork.example>',
+    // NUXT_SIGNING_SECRET (scripts/env.sh sets it from KW_SIGNING_SECRET): seals each organisation's Ed25519 private key
+    signingSecret: '',
     session: {
       name: 'knotwork-session',
       maxAge: 60 * 60 * 12,
       cookie: { sameSite: 'lax' },
     },
+    public: {
+      // NUXT_PUBLIC_BASE_URL: origin used for links in e-mails; NUXT_PUBLIC_MAIL_INBOX_URL: the local mail fake's inbox page
+      baseUrl: 'http://127.0.0.1:3000',
+      mailInboxUrl: '',
+    },
   },
   nitro: {
     preset: 'node-server',
+    // exceljs pulls these in through the `module-sync` export condition, which a build on Node 20
+    // does not trace (nitrojs/nitro#4468): without them the built server fails on the first import.
+    externals: {
+      traceInclude: [
+        'node_modules/async-function/require.mjs',
+        'node_modules/async-generator-function/require.mjs',
+        'node_modules/generator-function/require.mjs',
+      ],
+    },
   },
   vite: {
     optimizeDeps: { include: [] },

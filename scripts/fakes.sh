@@ -9,8 +9,12 @@
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd -P)"
 data="$root/.data"
-dir="$data/fakes"
-envfile="$data/fakes.env"
+# KW_FAKES_DIR (relative to the checkout or absolute) keeps a separate set, e.g. for npm test
+case "${KW_FAKES_DIR:-}" in
+  "") dir="$data/fakes"; envfile="$data/fakes.env" ;;
+  /*) dir="$KW_FAKES_DIR"; envfile="$dir/fakes.env" ;;
+  *) dir="$root/$KW_FAKES_DIR"; envfile="$dir/fakes.env" ;;
+esac
 cmd="${1:-start}"
 webhook_url="${KW_APP_WEBHOOK_URL:-http://127.0.0.1:3000/api/webhooks/stripe}"
 log() { printf '[fakes] %s\n' "$*" >&2; }

@@ -2,6 +2,8 @@
 import { createSequelize } from '../server/database/connection'
 import { seedPeople, DEMO_PASSWORD } from './seed/people'
 import { seedTables } from './seed/tables'
+import { seedBilling } from './seed/billing'
+import { seedApprovals } from './seed/approvals'
 
 const url = process.env.KW_DATABASE_OWNER_URL
 if (!url) { console.error('KW_DATABASE_OWNER_URL is not set (scripts/start.sh sets it)'); process.exit(1) }
@@ -14,6 +16,8 @@ try {
     const people = await db.transaction(async (t) => {
       const people = await seedPeople(db, t)
       await seedTables(db, t, people)
+      await seedApprovals(db, t, people)
+      await seedBilling(db, t, people)
       return people
     })
     console.log('[seed] demo scenario seeded (invented data). Sign in at http://127.0.0.1:3000 with:')

@@ -13,5 +13,6 @@ if [ "${KW_SKIP_BUILD:-}" != "1" ] || [ ! -f .output/server/index.mjs ]; then
   npx nuxt build > .data/build.log 2>&1 || { tail -50 .data/build.log; exit 1; }
 fi
 export HOST="${HOST:-127.0.0.1}" PORT="${PORT:-3000}" NITRO_HOST="${HOST:-127.0.0.1}" NITRO_PORT="${PORT:-3000}"
+export NUXT_PUBLIC_BASE_URL="${NUXT_PUBLIC_BASE_URL:-http://$HOST:$PORT}"  # links in e-mails
 echo "[start] Knotwork at http://$HOST:$PORT  (sign-ins are printed above and listed in README.md)"
 exec node .output/server/index.mjs

@@ -15,7 +15,7 @@ KW_DB_ACTION=create bash scripts/db.sh "$testdb" >/dev/null
 server_pid=""
 cleanup() {
   [ -n "$server_pid" ] && kill "$server_pid" 2>/dev/null || true
-  [ -n "${fakes_started:-}" ] && KW_FAKES_DIR=".data/fakes-test-$$" bash scripts/fakes.sh stop >/dev/null 2>&1 || true
+  [ -n "${fakes_started:-}" ] && { KW_FAKES_DIR=".data/fakes-test-$$" bash scripts/fakes.sh stop >/dev/null 2>&1; rm -rf ".data/fakes-test-$$"; } || true
   KW_DB_ACTION=drop bash scripts/db.sh "$testdb" >/dev/null 2>&1 || true
 }
 trap cleanup EXIT
@@ -25,7 +25,9 @@ if [ -f scripts/fakes.sh ]; then
   bash scripts/fakes.sh >/dev/null && fakes_started=1
 fi
 . scripts/env.sh "$testdb"
+# fakes.sh writes $KW_FAKES_DIR/fakes.env when it supports KW_FAKES_DIR, else .data/fakes.env (read by env.sh)
 [ -n "${KW_FAKES_DIR:-}" ] && [ -f "$KW_FAKES_DIR/fakes.env" ] && { set -a; . "$KW_FAKES_DIR/fakes.env"; set +a; }
+kw_fakes_to_nuxt
 npx tsx scripts/migrate.ts >/dev/null
 npx tsx scripts/seed.ts >/dev/null
 
@@ -40,6 +42,7 @@ if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ]; then
   echo "[test] building"; npx nuxt build > .data/build-test.log 2>&1 || { tail -40 .data/build-test.log; exit 1; }
   port="${port_base:-$(( 3100 + ($$ % 400) ))}"
   export KW_BASE_URL="http://127.0.0.1:$port" NUXT_TRUST_PROXY=1
+  export NUXT_PUBLIC_BASE_URL="$KW_BASE_URL"
   HOST=127.0.0.1 PORT="$port" node .output/server/index.mjs > ".data/server-test.log" 2>&1 &
   server_pid=$!
   for _ in $(seq 1 60); do curl -sf "$KW_BASE_URL/signin" >/dev/null && break; sleep 0.5; done

@@ -5,5 +5,10 @@ export interface NavEntry { label: string; to: (org: string) => string; permissi
 
 export const ORG_NAVIGATION: NavEntry[] = [
   { label: 'Tables', to: org => `/orgs/${org}`, permission: 'tables:read', testId: 'nav-tables' },
+  { label: 'Second check', to: org => `/orgs/${org}/reviews`, permission: 'reviews:decide', testId: 'nav-reviews' },
+  { label: 'Audit trail', to: org => `/orgs/${org}/audit`, permission: 'tables:read', testId: 'nav-audit' },
+  { label: 'Check a file', to: org => `/orgs/${org}/verify`, permission: 'exports:download', testId: 'nav-verify' },
+  { label: 'Import', to: org => `/orgs/${org}/imports/new`, permission: 'tables:edit', testId: 'nav-import' },
   { label: 'Members', to: org => `/orgs/${org}/members`, permission: 'members:manage', testId: 'nav-members' },
+  { label: 'Billing', to: org => `/orgs/${org}/billing`, permission: 'members:manage', testId: 'nav-billing' },
 ]

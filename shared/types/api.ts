@@ -30,3 +30,62 @@ export interface TableSummaryDto {
   approvedNumber: number | null
   updatedAt: string
 }
+
+export interface InvitationDto {
+  id: string
+  email: string
+  role: Role
+  invitedBy: string | null
+  sentAt: string
+  expiresAt: string
+  expired: boolean
+}
+
+export interface SeatsDto {
+  purchased: number
+  members: number
+  pending: number
+  used: number
+}
+
+/** What the invitation page shows to whoever holds the link. */
+export interface InvitationPreviewDto {
+  org: { name: string; slug: string }
+  email: string
+  role: Role
+  expiresAt: string
+  hasAccount: boolean
+  signedInAs: string | null
+}
+
+export interface BillingInvoiceDto {
+  id: string
+  number: string | null
+  status: string
+  reason: string | null
+  amountDue: number
+  amountPaid: number
+  currency: string
+  periodStart: string | null
+  periodEnd: string | null
+  created: string
+  hostedUrl: string | null
+}
+
+export interface BillingDto {
+  plan: { name: string; unitAmount: number; currency: string; interval: string }
+  seats: SeatsDto
+  status: string
+  currentPeriodEnd: string | null
+  card: { brand: string; last4: string } | null
+  cardEntryUrl: string | null
+  invoices: BillingInvoiceDto[]
+  syncedAt: string | null
+  /** set when the payment service could not be reached: the figures are the last ones stored */
+  stale: boolean
+}
+
+export interface BillingStatusDto {
+  status: string
+  attention: boolean
+}

@@ -1,7 +1,15 @@
 import { foundationRoutes } from './foundation'
+import { tablesRoutes } from './tables'
+import { membersRoutes } from './members'
+import { billingRoutes } from './billing'
+import { reviewRoutes } from './review'
 import type { RouteExpectation } from './types'
 
 // Each feature adds its own file and spreads it here.
 export const ROUTES: Record<string, RouteExpectation> = {
   ...foundationRoutes,
+  ...membersRoutes,
+  ...billingRoutes,
+  ...tablesRoutes,
+  ...reviewRoutes,
 }

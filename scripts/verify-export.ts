@@ -1,0 +1,64 @@
+// Verifies a Knotwork signed workbook without the Knotwork server.
+//   npx tsx scripts/verify-export.ts file.xlsx [jwks.json] [--out dir]
+// jwks.json: the organisation's published keys (GET /api/keys/<organisation>.json); without it the
+// public key written in the file is used, which proves integrity but not who signed (compare the key id
+// with the published one). --out writes content.json, sig.bin and pub.pem for the openssl check in
+// docs/verify-offline.md.
+import { readFileSync, writeFileSync, mkdirSync } from 'node:fs'
+import path from 'node:path'
+import { fileURLToPath } from 'node:url'
+import { canonicalBytes, contentFromSheets, contentSha256, publicPem, readWorkbookCells, verifyWorkbookCells, type SheetCells } from '../server/lib/signing'
+import { unescapeText } from '../server/lib/signing/escape'
+
+function field(sheets: SheetCells, label: string): string | null {
+  const row = (sheets.get('Signature') ?? []).find(r => typeof r[0] === 'string' && unescapeText(r[0]) === label)
+  return typeof row?.[1] === 'string' ? unescapeText(row[1]) : null
+}
+
+/** The files openssl needs: canonical content rebuilt from the visible sheets, the raw signature, the public key. */
+export async function extractForOpenssl(file: Buffer, x: string) {
+  const sheets = await readWorkbookCells(file)
+  const content = contentFromSheets(sheets)
+  return { content: canonicalBytes(content), signature: Buffer.from(field(sheets, 'Signature (base64)') ?? '', 'base64'), pem: publicPem(x), sha256: contentSha256(content) }
+}
+
+async function main() {
+  const args = process.argv.slice(2)
+  const outAt = args.indexOf('--out')
+  const out = outAt >= 0 ? args.splice(outAt, 2)[1] : undefined
+  const [file, jwksFile] = args
+  if (!file) { console.error('usage: npx tsx scripts/verify-export.ts file.xlsx [jwks.json] [--out dir]'); process.exit(2) }
+  const data = readFileSync(file)
+  const sheets = await readWorkbookCells(data)
+  const published = jwksFile ? (JSON.parse(readFileSync(jwksFile, 'utf8')) as { keys: { kid: string; x: string; status?: string }[] }).keys : null
+  const inFile = field(sheets, 'Public key (Ed25519 x, base64url)')
+  const lookup = (kid: string) => (published ? published.find(k => k.kid === kid)?.x ?? null : inFile)
+  const verdict = verifyWorkbookCells(sheets, lookup)
+  if (verdict.kind === 'genuine') {
+    const c = verdict.content
+    console.log(`GENUINE: ${c.table.name}, version ${c.version.number} (${c.organisation.name}), signed off by ${c.approvedBy?.name ?? '?'} at ${c.approvedAt}, file signed ${c.signedAt}`)
+    console.log(`key id ${verdict.keyId}${published ? ' (found in the published key set)' : ' (key taken from the file itself: compare this key id with the published one)'}`)
+  } else if (verdict.kind === 'altered') {
+    console.log(`ALTERED: ${verdict.reason}`)
+    for (const d of verdict.differences) console.log(`  ${d.cell}: signed ${JSON.stringify(d.expected)}, found ${JSON.stringify(d.found)}`)
+  } else if (verdict.kind === 'unknown-key') {
+    console.log(`UNKNOWN KEY: ${verdict.keyId} is not in ${jwksFile}`)
+  } else {
+    console.log(`NOT SIGNED: ${verdict.reason}`)
+  }
+  const kid = field(sheets, 'Key id')
+  const x = kid ? lookup(kid) : null
+  if (out && x) {
+    mkdirSync(out, { recursive: true })
+    const parts = await extractForOpenssl(data, x)
+    writeFileSync(path.join(out, 'content.json'), parts.content)
+    writeFileSync(path.join(out, 'sig.bin'), parts.signature)
+    writeFileSync(path.join(out, 'pub.pem'), parts.pem)
+    console.log(`wrote ${out}/content.json (SHA-256 ${parts.sha256}), ${out}/sig.bin, ${out}/pub.pem`)
+  }
+  process.exit(verdict.kind === 'genuine' ? 0 : 1)
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {
+  main().catch((e) => { console.error(e instanceof Error ? e.message : e); process.exit(2) })
+}

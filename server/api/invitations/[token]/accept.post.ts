@@ -1,0 +1,10 @@
+import { acceptInvitation } from '../../../services/invitation-accept'
+import { describeMe } from '../../../services/me'
+
+// Public: accept with a new account (name + password) or with the invited address's existing account.
+export default defineEventHandler(async (event) => {
+  const token = getRouterParam(event, 'token') ?? ''
+  const body = await readBody(event).catch(() => ({}))
+  const { user, orgSlug } = await acceptInvitation(event, token, body ?? {})
+  return { org: orgSlug, me: await describeMe(user) }
+})

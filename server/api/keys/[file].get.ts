@@ -1,0 +1,15 @@
+import { z } from 'zod'
+import { Organisation } from '../../database/models'
+import { listSigningKeys } from '../../services/signing-keys'
+
+const paramsSchema = z.object({ file: z.string().regex(/^[a-z0-9][a-z0-9-]{1,62}\.json$/, 'Ask for /api/keys/<organisation>.json') })
+
+// Public, unauthenticated: an organisation's signing public keys (JWK set) at /api/keys/<slug>.json, for
+// auditors outside Knotwork (docs/verify-offline.md). Public keys only; nothing secret is revealed.
+export default defineEventHandler(async (event) => {
+  const { file } = readValidParams(event, paramsSchema)
+  const org = await Organisation.findOne({ where: { slug: file.replace(/\.json$/, '') } })
+  if (!org) notFound('organisation')
+  setResponseHeader(event, 'cache-control', 'public, max-age=300')
+  return { keys: await listSigningKeys(org.id) }
+})

@@ -1,0 +1,10 @@
+import { seatsSchema } from '../../../../../shared/schemas/members'
+import { changeSeats } from '../../../../services/billing'
+
+// Sets the number of purchased seats; the proration is invoiced at once.
+export default defineEventHandler(async (event) => {
+  const { org } = await requirePermission(event, 'members:manage')
+  const { seats, requestKey } = await readValidBody(event, seatsSchema)
+  await changeSeats(event, org, seats, requestKey ?? event.context.requestId!)
+  return { ok: true }
+})

@@ -1,0 +1,18 @@
+import { ImportRefused } from '../../../../lib/import/limits'
+import { readUpload } from '../../../../services/upload'
+import { verifyUpload } from '../../../../services/exports'
+
+// A signed workbook up to this size is read (counted as the bytes arrive; the upload stops at the cap).
+const MAX_BYTES = 10 * 1024 * 1024
+
+// Checks an uploaded signed workbook (multipart, field "file"): genuine and current, genuine but superseded, altered (which cells), or unknown key.
+export default defineEventHandler(async (event) => {
+  const access = await requirePermission(event, 'exports:download')
+  try {
+    const { fileName, data } = await readUpload(event, MAX_BYTES)
+    return await verifyUpload(event, access, fileName, data)
+  } catch (error) {
+    if (error instanceof ImportRefused) throw createError({ statusCode: error.statusCode, statusMessage: error.message })
+    throw error
+  }
+})

@@ -1,0 +1,7 @@
+import type { InvitationDto } from '../../../../../shared/types/api'
+import { listInvitations } from '../../../../services/invitations'
+
+export default defineEventHandler(async (event): Promise<InvitationDto[]> => {
+  const { org } = await requirePermission(event, 'members:manage')
+  return listInvitations(org.id)
+})

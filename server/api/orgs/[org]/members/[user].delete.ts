@@ -1,0 +1,12 @@
+import { z } from 'zod'
+import { removeMember } from '../../../../services/members'
+
+const params = z.object({ user: z.uuid({ message: 'No such member.' }) })
+
+// Removes a member: their access ends at once and their sessions are ended.
+export default defineEventHandler(async (event) => {
+  const access = await requirePermission(event, 'members:manage')
+  const { user } = readValidParams(event, params)
+  await removeMember(event, access, user)
+  return { ok: true }
+})

@@ -1,0 +1,78 @@
+import type { Axis, AxisUnit, TableKind, ValueUnit } from '../../../shared/tables'
+import { parseNumberText } from '../../../shared/decimal-text'
+import type { ColumnSuggestion } from '../../../shared/types/tables'
+import type { StoredSheet } from './read-workbook'
+
+import { columnLetter } from '../../../shared/cells'
+
+export { cellAddress, columnLetter } from '../../../shared/cells'
+
+const isNumber = (v: string | null | undefined) => !!v && parseNumberText(v).ok
+const filled = (row: (string | null)[] | undefined) => (row ?? []).filter(v => v !== null && v !== '')
+
+/**
+ * The header row: the first row (of the first 40) with at least two filled cells, mostly text,
+ * followed by a row with at least two numbers. Notes rows above the header are common.
+ */
+export function proposeHeaderRow(rows: (string | null)[][]): number {
+  const limit = Math.min(rows.length, 40)
+  for (let r = 0; r < limit; r++) {
+    const cells = filled(rows[r])
+    if (cells.length < 2 || cells.filter(v => !isNumber(v)).length * 2 < cells.length) continue
+    let next = r + 1
+    while (next < rows.length && filled(rows[next]).length === 0) next++
+    if (filled(rows[next]).filter(isNumber).length >= 2) return r
+  }
+  return 0
+}
+
+export function guessKind(header: string): TableKind {
+  const h = header.toLowerCase()
+  if (/q_?x|mort|death|dying/.test(h)) return 'mortality'
+  if (/lapse|surrender|persist|withdraw/.test(h)) return 'lapse'
+  if (/discount|\bdf\b|p\(t\)/.test(h)) return 'discount-factor'
+  if (/spot|zero|yield|curve|\brate\b/.test(h)) return 'spot-rate'
+  if (/salar|wage|pay|earning/.test(h)) return 'salary'
+  return 'other'
+}
+
+export function guessAxis(header: string): { axis: Axis; axisUnit: AxisUnit } {
+  const h = header.toLowerCase()
+  const axisUnit: AxisUnit = /month/.test(h) ? 'months' : 'years'
+  if (/term|tenor|maturity|\bt\b/.test(h)) return { axis: 'term', axisUnit }
+  if (/policy|duration|year/.test(h)) return { axis: 'policy-year', axisUnit }
+  return { axis: 'age', axisUnit }
+}
+
+/** Unit from the header, the cells, and (for probabilities) the size of the values. */
+export function guessUnit(header: string, values: string[], kind: TableKind): { unit: ValueUnit; reason: string | null } {
+  const h = header.toLowerCase()
+  if (/\u2030|per ?mille|permille|per 1,?000|per thousand/.test(h)) return { unit: 'per-mille', reason: 'the header says per mille' }
+  if (/%|percent|per cent/.test(h)) return { unit: 'percent', reason: 'the header says percent' }
+  if (values.some(v => v.trim().endsWith('%'))) return { unit: 'percent', reason: 'cells are written with %' }
+  if (kind === 'mortality' || kind === 'lapse') {
+    const max = Math.max(...values.map(v => parseNumberText(v)).filter(p => p.ok && p.scale === 1).map(p => Number((p as { value: string }).value)))
+    if (max > 100) return { unit: 'per-mille', reason: `values up to ${max} suggest per mille for a probability` }
+    if (max > 1) return { unit: 'percent', reason: `values up to ${max} suggest percent for a probability` }
+  }
+  return { unit: 'per-unit', reason: null }
+}
+
+export function suggestColumns(sheet: StoredSheet, headerRow: number): ColumnSuggestion[] {
+  const header = sheet.rows[headerRow] ?? []
+  const body = sheet.rows.slice(headerRow + 1, headerRow + 501)
+  const out: ColumnSuggestion[] = []
+  let axisTaken = false
+  for (let c = 0; c < sheet.colCount; c++) {
+    const title = (header[c] ?? '').trim() || `Column ${columnLetter(c)}`
+    const values = body.map(r => r[c]).filter((v): v is string => !!v && v.trim() !== '')
+    const numeric = values.filter(isNumber).length
+    if (!values.length || numeric * 2 < values.length) { out.push({ index: c, header: title, role: 'ignore', kind: 'other', valueUnit: 'per-unit', unitReason: null }); continue }
+    const isAxis = !axisTaken && (/age|year|term|tenor|duration|maturity|^x$/i.test(title) || c === 0)
+    if (isAxis) { axisTaken = true; out.push({ index: c, header: title, role: 'axis', kind: 'other', valueUnit: 'per-unit', unitReason: null }); continue }
+    const kind = guessKind(title)
+    const { unit, reason } = guessUnit(title, values, kind)
+    out.push({ index: c, header: title, role: 'value', kind, valueUnit: unit, unitReason: reason })
+  }
+  return out
+}

@@ -1,0 +1,131 @@
+import { Readable } from 'node:stream'
+import ExcelJS from 'exceljs'
+import { parse as parseCsv } from 'csv-parse/sync'
+import { D, canonicalDecimal } from '../../../shared/decimal-text'
+import { IMPORT_LIMITS, ImportRefused } from './limits'
+import { guardXlsxZip } from './zip-guard'
+
+/** One sheet as stored in imports.sheets: cell text by 0-based row and column. */
+export interface StoredSheet {
+  name: string
+  rows: (string | null)[][]
+  /** "row:col" of cells holding a formula: refused, their cached result may be stale */
+  formulas: string[]
+  colCount: number
+}
+
+const L = IMPORT_LIMITS
+const OLE = Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1])
+
+export function sniffKind(fileName: string, buf: Buffer): 'xlsx' | 'csv' {
+  const ext = (/\.([a-z0-9]+)$/i.exec(fileName)?.[1] ?? '').toLowerCase()
+  if (buf.length === 0) throw new ImportRefused(400, 'The file is empty.')
+  if (buf.subarray(0, 8).equals(OLE)) {
+    throw new ImportRefused(415, 'This is an encrypted workbook or a legacy .xls file (an OLE compound file). Remove the password or save it as .xlsx, then retry.')
+  }
+  const isZip = buf[0] === 0x50 && buf[1] === 0x4b && (buf[2] === 3 || buf[2] === 5 || buf[2] === 7)
+  if (ext === 'xlsx') {
+    if (!isZip) throw new ImportRefused(415, `"${fileName}" is named .xlsx but its content is not an Excel workbook.`)
+    return 'xlsx'
+  }
+  if (ext === 'csv' || ext === 'txt') {
+    if (isZip || buf.subarray(0, 4096).includes(0)) throw new ImportRefused(415, `"${fileName}" is named .${ext} but its content is not text (is it a workbook with the wrong extension?).`)
+    return 'csv'
+  }
+  if (ext === 'xls') throw new ImportRefused(415, 'Legacy .xls files are not read; save the workbook as .xlsx and retry.')
+  throw new ImportRefused(415, 'Upload an Excel workbook (.xlsx) or a CSV file (.csv).')
+}
+
+type CellValue = ExcelJS.CellValue
+function cellText(value: CellValue, numFmt: string | undefined): { text: string | null; formula: boolean } {
+  if (value === null || value === undefined) return { text: null, formula: false }
+  if (typeof value === 'number') {
+    // a percent-formatted cell holds the per-unit number; write it as the person sees it
+    return { text: numFmt?.includes('%') ? `${canonicalDecimal(new D(String(value)).mul(100))}%` : String(value), formula: false }
+  }
+  if (typeof value === 'string') return { text: value, formula: false }
+  if (typeof value === 'boolean') return { text: value ? 'TRUE' : 'FALSE', formula: false }
+  if (value instanceof Date) return { text: value.toISOString().slice(0, 10), formula: false }
+  if ('formula' in value || 'sharedFormula' in value) {
+    const result = (value as { result?: unknown }).result
+    return { text: result === undefined || result === null || typeof result === 'object' ? '' : String(result), formula: true }
+  }
+  if ('richText' in value) return { text: value.richText.map(r => r.text).join(''), formula: false }
+  if ('error' in value) return { text: String(value.error), formula: false }
+  if ('text' in value) return { text: String(value.text), formula: false }
+  return { text: null, formula: false }
+}
+
+function trimRow(row: (string | null)[]) {
+  while (row.length && (row[row.length - 1] === null || row[row.length - 1] === '')) row.pop()
+  return row
+}
+
+async function readXlsx(buf: Buffer): Promise<StoredSheet[]> {
+  await guardXlsxZip(buf)
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(buf), {
+    sharedStrings: 'cache', hyperlinks: 'ignore', styles: 'cache', worksheets: 'emit', entries: 'emit',
+  })
+  const sheets: StoredSheet[] = []
+  try {
+    for await (const ws of reader) {
+      const sheet = ws as unknown as { name: string } & AsyncIterable<ExcelJS.Row>
+      const stored: StoredSheet = { name: sheet.name, rows: [], formulas: [], colCount: 0 }
+      for await (const row of sheet) {
+        const r = row.number - 1
+        if (r >= L.rows + 1) throw new ImportRefused(413, `Sheet '${sheet.name}' has more than ${L.rows.toLocaleString('en-GB')} rows; split the file or remove unused rows.`)
+        const out: (string | null)[] = []
+        row.eachCell({ includeEmpty: false }, (cell, col) => {
+          if (col > L.columns) throw new ImportRefused(413, `Sheet '${sheet.name}' uses more than ${L.columns} columns; remove unused columns.`)
+          const { text, formula } = cellText(cell.value, cell.numFmt)
+          if (formula) stored.formulas.push(`${r}:${col - 1}`)
+          out[col - 1] = text
+        })
+        for (let i = 0; i < out.length; i++) out[i] ??= null
+        stored.rows[r] = trimRow(out)
+        stored.colCount = Math.max(stored.colCount, stored.rows[r]!.length)
+      }
+      for (let i = 0; i < stored.rows.length; i++) stored.rows[i] ??= []
+      sheets.push(stored)
+    }
+  } catch (e) {
+    if (e instanceof ImportRefused) throw e
+    throw new ImportRefused(400, 'The workbook could not be read. Save it again as .xlsx from your spreadsheet program and retry.')
+  }
+  if (!sheets.length) throw new ImportRefused(400, 'The workbook has no sheets.')
+  return sheets
+}
+
+function decodeText(buf: Buffer): string {
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(buf).replace(/^\uFEFF/, '')
+  } catch {
+    return new TextDecoder('windows-1252').decode(buf)
+  }
+}
+
+function readCsv(fileName: string, buf: Buffer): StoredSheet[] {
+  let lines = 0
+  for (let i = buf.indexOf(10); i !== -1; i = buf.indexOf(10, i + 1)) {
+    if (++lines > L.rows + 1) throw new ImportRefused(413, `The file has more than ${L.rows.toLocaleString('en-GB')} rows; split the file or remove unused rows.`)
+  }
+  const text = decodeText(buf)
+  const sample = text.split(/\r?\n/, 20).join('\n')
+  const delimiter = ([',', ';', '\t'] as const).map(d => [d, sample.split(d).length] as const).sort((a, b) => b[1] - a[1])[0]![0]
+  let records: string[][]
+  try {
+    records = parseCsv(text, { delimiter, relax_column_count: true, relax_quotes: true, skip_empty_lines: false, bom: true }) as string[][]
+  } catch {
+    throw new ImportRefused(400, 'The CSV file could not be read (unbalanced quotes?). Save it again and retry.')
+  }
+  const rows = records.map(rec => trimRow(rec.map(v => (v.trim() === '' ? null : v))))
+  const colCount = rows.reduce((m, r) => Math.max(m, r.length), 0)
+  if (colCount > L.columns) throw new ImportRefused(413, `The file uses more than ${L.columns} columns; remove unused columns.`)
+  return [{ name: fileName.replace(/\.[^.]+$/, '').slice(0, 100) || 'CSV', rows, formulas: [], colCount }]
+}
+
+/** Reads an upload already checked for size: sniffs its real kind, guards it, returns its cells. */
+export async function readWorkbook(fileName: string, buf: Buffer): Promise<{ kind: 'xlsx' | 'csv'; sheets: StoredSheet[] }> {
+  const kind = sniffKind(fileName, buf)
+  return { kind, sheets: kind === 'xlsx' ? await readXlsx(buf) : readCsv(fileName, buf) }
+}

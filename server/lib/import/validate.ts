@@ -1,0 +1,90 @@
+import { canonicalDecimal, cmpDecimal, parseNumberText, toPerUnit } from '../../../shared/decimal-text'
+import { checkAxis, checkValue } from '../../../shared/table-rules'
+import { AXIS_LABELS } from '../../../shared/tables'
+import type { ImportMapping } from '../../../shared/schemas/imports'
+import type { ImportFinding, PointDto } from '../../../shared/types/tables'
+import { cellAddress } from './analyse'
+import type { StoredSheet } from './read-workbook'
+
+export interface ValidatedTable { name: string; column: number; kind: ImportMapping['columns'][number]['kind']; valueUnit: ImportMapping['columns'][number]['valueUnit']; points: PointDto[] }
+export interface Validation { findings: ImportFinding[]; tables: ValidatedTable[]; flaggedRows: number[] }
+
+const MAX_FINDINGS = 1000
+
+export function sortPoints(points: PointDto[]): PointDto[] {
+  return points.map(p => ({ p, x: canonicalDecimal(p.x) })).sort((a, b) => cmpDecimal(a.x, b.x)).map(e => e.p)
+}
+
+/** Every rule of the import, on the stored cells plus the person's fixes. Pure; run at preview and again at create. */
+export function validateMapping(sheet: StoredSheet, m: ImportMapping): Validation {
+  const findings: ImportFinding[] = []
+  const flagged = new Set<number>()
+  const formulas = new Set(sheet.formulas)
+  const where = `Sheet '${sheet.name}'`
+  const add = (severity: ImportFinding['severity'], code: string, row: number | null, col: number | null, text: string) => {
+    if (row !== null) flagged.add(row)
+    if (findings.length === MAX_FINDINGS) findings.push({ severity: 'error', code: 'too-many', sheet: sheet.name, cell: null, row: null, col: null, message: `${where}: more than ${MAX_FINDINGS} findings; fix the first ones and check again.` })
+    if (findings.length > MAX_FINDINGS) return
+    const cell = row !== null && col !== null ? cellAddress(row, col) : null
+    findings.push({ severity, code, sheet: sheet.name, cell, row, col, message: `${where}${cell ? ` ${cell}` : ''}: ${text}` })
+  }
+  const cellAt = (r: number, c: number): { text: string | null; formula: boolean } => {
+    const edit = m.edits[`${r}:${c}`]
+    if (edit !== undefined) return { text: edit.trim() === '' ? null : edit, formula: false }
+    const v = sheet.rows[r]?.[c]
+    return { text: v === undefined || v === null || v.trim() === '' ? null : v, formula: formulas.has(`${r}:${c}`) }
+  }
+  const axisName = AXIS_LABELS[m.axis].toLowerCase()
+  const tables: ValidatedTable[] = m.columns.map(c => ({ name: c.name, column: c.index, kind: c.kind, valueUnit: c.valueUnit, points: [] }))
+  const firstRowOf = new Map<string, number>()
+  let previous: string | null = null
+  let unsortedReported = false
+  let dataRows = 0
+
+  for (let r = m.headerRow + 1; r < sheet.rows.length; r++) {
+    const axisCell = cellAt(r, m.axisColumn)
+    const valueCells = m.columns.map(c => cellAt(r, c.index))
+    if (axisCell.text === null && valueCells.every(v => v.text === null)) continue // blank row
+    dataRows++
+    let x: string | null = null
+    if (axisCell.formula) add('error', 'formula', r, m.axisColumn, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.')
+    else if (axisCell.text === null) add('error', 'axis-blank', r, m.axisColumn, `the ${axisName} is blank but the row has values`)
+    else {
+      const p = parseNumberText(axisCell.text)
+      if (!p.ok) add('error', 'not-a-number', r, m.axisColumn, `'${axisCell.text}' ${p.reason}`)
+      else if (p.scale !== 1) add('error', 'axis-unit', r, m.axisColumn, `'${axisCell.text}': the ${axisName} cannot be a percentage`)
+      else {
+        const rule = checkAxis(p.value)
+        if (rule) add(rule.severity, 'axis-range', r, m.axisColumn, `'${axisCell.text}': ${rule.message}`)
+        const key = canonicalDecimal(p.value)
+        const first = firstRowOf.get(key)
+        if (first !== undefined) add('error', 'duplicate-axis', r, m.axisColumn, `${axisName} ${key} appears again (first in row ${first + 1})`)
+        else firstRowOf.set(key, r)
+        if (previous !== null && cmpDecimal(key, previous) < 0 && !unsortedReported) {
+          unsortedReported = true
+          add('warning', 'unsorted', r, m.axisColumn, `the rows are not in increasing order of ${axisName} (first here); they will be sorted when the drafts are created`)
+        }
+        previous = key
+        if (!rule || rule.severity === 'warning') x = first === undefined ? key : null
+      }
+    }
+    m.columns.forEach((col, i) => {
+      const cell = valueCells[i]!
+      if (cell.formula) return add('error', 'formula', r, col.index, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.')
+      if (cell.text === null) return add('warning', 'value-blank', r, col.index, `no value; this row is left out of "${col.name}"`)
+      const p = parseNumberText(cell.text)
+      if (!p.ok) return add('error', 'not-a-number', r, col.index, `'${cell.text}' ${p.reason}`)
+      const y = toPerUnit(p, col.valueUnit)
+      const rule = checkValue(col.kind, y)
+      if (rule) add(rule.severity, 'out-of-range', r, col.index, `'${cell.text}' (${y} per unit): ${rule.message}`)
+      if (x !== null && (!rule || rule.severity === 'warning')) tables[i]!.points.push({ x, y })
+    })
+  }
+  if (dataRows === 0) add('error', 'no-rows', null, null, 'there are no rows under the header row')
+  for (const t of tables) {
+    if (dataRows > 0 && t.points.length === 0) add('error', 'no-points', null, t.column, `"${t.name}" has no usable values`)
+    else if (t.points.length === 1) add('warning', 'one-point', null, t.column, `"${t.name}" has a single point; interpolation needs at least two`)
+    if (unsortedReported) t.points = sortPoints(t.points)
+  }
+  return { findings, tables, flaggedRows: [...flagged].sort((a, b) => a - b) }
+}

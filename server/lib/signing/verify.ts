@@ -1,0 +1,85 @@
+import { canonicalBytes, contentSha256, type SignedContent } from './content'
+import { unescapeText } from './escape'
+import { verifyBytes } from './keys'
+import { SHEET, workbookModel, type CellValue } from './workbook-model'
+import { contentFromSheets, type SheetCells } from './workbook-io'
+
+export interface CellDifference { cell: string; expected: CellValue; found: CellValue }
+export type Verdict =
+  | { kind: 'not-signed'; reason: string }
+  | { kind: 'unknown-key'; keyId: string }
+  | { kind: 'genuine'; keyId: string; content: SignedContent }
+  /** content: what was signed, when the signature still matches a content (then differences name the cells) */
+  | { kind: 'altered'; keyId: string; reason: string; content: SignedContent | null; differences: CellDifference[]; differenceCount: number }
+
+export const MAX_DIFFERENCES = 200
+
+/** "A1"-style column letters (1-based column). */
+export function columnName(n: number): string {
+  let s = ''
+  for (let c = n; c > 0; c = Math.floor((c - 1) / 26)) s = String.fromCharCode(65 + ((c - 1) % 26)) + s
+  return s
+}
+const quoteSheet = (name: string) => name
+/** A cell named the way people read it: Filled values!B17 (sheet name, '!', column letters, 1-based row). */
+export function cellAddress(sheet: string, row0: number, col0: number): string {
+  return `${quoteSheet(sheet)}!${columnName(col0 + 1)}${row0 + 1}`
+}
+
+/** Every cell where the upload differs from the workbook the signed content produces (sheets compared by name). */
+export function diffCells(expected: SheetCells, actual: SheetCells): CellDifference[] {
+  const out: CellDifference[] = []
+  for (const name of new Set([...expected.keys(), ...actual.keys()])) {
+    const e = expected.get(name)
+    const a = actual.get(name)
+    if (!e || !a) { out.push({ cell: quoteSheet(name), expected: e ? 'this sheet' : 'no such sheet', found: a ? 'an extra sheet' : 'the sheet is missing' }); continue }
+    for (let r = 0; r < Math.max(e.length, a.length); r++) {
+      const er = e[r] ?? []
+      const ar = a[r] ?? []
+      for (let c = 0; c < Math.max(er.length, ar.length); c++) {
+        const ev = er[c] ?? null
+        const av = ar[c] ?? null
+        if (ev !== av) out.push({ cell: cellAddress(name, r, c), expected: ev, found: av })
+      }
+    }
+  }
+  return out
+}
+
+function signatureField(rows: CellValue[][], label: string): string | null {
+  const row = rows.find(r => typeof r[0] === 'string' && unescapeText(r[0]) === label)
+  const v = row?.[1]
+  return typeof v === 'string' ? unescapeText(v) : typeof v === 'number' ? String(v) : null
+}
+
+/**
+ * Verifies a signed workbook's cells against the public key its key id names (lookup returns
+ * the key's x, or null when the key is unknown). Genuine means: the signature holds over the
+ * content, and every cell of every sheet is exactly the cell that content produces.
+ */
+export function verifyWorkbookCells(sheets: SheetCells, lookup: (keyId: string) => string | null): Verdict {
+  const sig = sheets.get(SHEET.signature)
+  if (!sig) return { kind: 'not-signed', reason: `The workbook has no "${SHEET.signature}" sheet: it is not a Knotwork signed export.` }
+  const keyId = signatureField(sig, 'Key id')
+  const signature = signatureField(sig, 'Signature (base64)')
+  if (!keyId || !signature) return { kind: 'not-signed', reason: 'The signature sheet has no key id or no signature.' }
+  const x = lookup(keyId)
+  if (!x) return { kind: 'unknown-key', keyId }
+  const holds = (c: SignedContent | null) => !!c && verifyBytes(canonicalBytes(c), signature, x)
+  let stored: SignedContent | null = null
+  try {
+    const parts = sig.filter(r => typeof r[0] === 'string' && unescapeText(r[0]).startsWith('Signed content, part ')).map(r => (typeof r[1] === 'string' ? unescapeText(r[1]) : ''))
+    stored = JSON.parse(parts.join('')) as SignedContent
+  } catch { stored = null }
+  let rebuilt: SignedContent | null = null
+  try { rebuilt = contentFromSheets(sheets) } catch { rebuilt = null }
+  const signed = holds(stored) ? stored : holds(rebuilt) ? rebuilt : null
+  if (!signed) {
+    return { kind: 'altered', keyId, reason: 'The signature does not match the content in the file: the signature, the stored content or the sheets were changed.', content: null, differences: [], differenceCount: 0 }
+  }
+  const canonical = canonicalBytes(signed).toString('utf8')
+  const model = workbookModel(signed, { signature, keyId, x, sha256: contentSha256(signed) }, canonical)
+  const differences = diffCells(new Map(model.map(s => [s.name, s.rows])), sheets)
+  if (!differences.length) return { kind: 'genuine', keyId, content: signed }
+  return { kind: 'altered', keyId, reason: `${differences.length} cell(s) differ from the signed content.`, content: signed, differences: differences.slice(0, MAX_DIFFERENCES), differenceCount: differences.length }
+}

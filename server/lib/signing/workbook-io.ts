@@ -1,0 +1,87 @@
+import ExcelJS from 'exceljs'
+import { canonicalBytes, contentSha256, type Pair, type SignedContent } from './content'
+import { unescapeText } from './escape'
+import { fromRows, type JsonRow, type RowType } from './json-rows'
+import { ABOUT_FIRST_DATA_ROW, SHEET, workbookModel, type CellValue, type SignatureBlock } from './workbook-model'
+
+export type SheetCells = Map<string, CellValue[][]>
+export const READ_CAPS = { sheets: 12, rowsPerSheet: 200_000, columns: 64 } as const
+
+/** Writes the signed workbook: the four sheets of workbookModel, nothing else in any cell. */
+export async function writeSignedWorkbook(content: SignedContent, block: Omit<SignatureBlock, 'sha256'>): Promise<Buffer> {
+  const canonical = canonicalBytes(content).toString('utf8')
+  const wb = new ExcelJS.Workbook()
+  wb.creator = 'Knotwork'
+  wb.created = new Date(content.signedAt)
+  wb.modified = new Date(content.signedAt)
+  for (const sheet of workbookModel(content, { ...block, sha256: contentSha256(content) }, canonical)) {
+    const ws = wb.addWorksheet(sheet.name)
+    sheet.widths.forEach((w, i) => { ws.getColumn(i + 1).width = w })
+    sheet.rows.forEach((row, r) => row.forEach((value, c) => { if (value !== null) ws.getCell(r + 1, c + 1).value = value }))
+    ws.getRow(sheet.name === SHEET.about ? ABOUT_FIRST_DATA_ROW : 1).font = { bold: true }
+    if (sheet.name === SHEET.filled || sheet.name === SHEET.given) ws.views = [{ state: 'frozen', ySplit: 1 }]
+  }
+  return Buffer.from(await wb.xlsx.writeBuffer())
+}
+
+/** A cell as the comparison sees it; anything but text, number or true/false becomes a marker text that never matches. */
+function plain(value: ExcelJS.CellValue): CellValue {
+  if (value === null || value === undefined) return null
+  if (typeof value === 'string' || typeof value === 'number' || typeof value === 'boolean') return value === '' ? null : value
+  if (value instanceof Date) return `[a date: ${value.toISOString()}]`
+  if ('formula' in value || 'sharedFormula' in value) return `[a formula: =${'formula' in value ? value.formula : value.sharedFormula}]`
+  if ('richText' in value) return value.richText.map(r => r.text).join('') || null
+  if ('error' in value) return `[an error value: ${value.error}]`
+  if ('text' in value) return `[a link: ${String(value.text)}]`
+  return '[an unreadable cell]'
+}
+
+/** Every non-empty cell of every sheet, by 0-based row and column. */
+export async function readWorkbookCells(data: Buffer): Promise<SheetCells> {
+  const wb = new ExcelJS.Workbook()
+  await wb.xlsx.load(data as unknown as ArrayBuffer)
+  if (wb.worksheets.length > READ_CAPS.sheets) throw new Error(`the workbook has more than ${READ_CAPS.sheets} sheets`)
+  const sheets: SheetCells = new Map()
+  for (const ws of wb.worksheets) {
+    if (ws.rowCount > READ_CAPS.rowsPerSheet || ws.columnCount > READ_CAPS.columns) throw new Error(`the sheet "${ws.name}" is larger than a signed table can be`)
+    const grid: CellValue[][] = []
+    ws.eachRow({ includeEmpty: false }, (row, r) => {
+      row.eachCell({ includeEmpty: false }, (cell, c) => {
+        const v = plain(cell.value)
+        if (v === null) return
+        const line = (grid[r - 1] ??= [])
+        line[c - 1] = v
+      })
+    })
+    sheets.set(ws.name, Array.from(grid, row => Array.from(row ?? [], v => v ?? null)))
+  }
+  return sheets
+}
+
+const text = (v: CellValue | undefined): string | null => (typeof v === 'string' ? unescapeText(v) : null)
+
+function pairsOf(rows: CellValue[][] | undefined, sheet: string): Pair[] {
+  if (!rows) throw new Error(`the sheet "${sheet}" is missing`)
+  return rows.slice(1).map((row, i) => {
+    const x = text(row[2])
+    const y = text(row[3])
+    if (x === null || y === null) throw new Error(`${sheet} row ${i + 2}: the exact decimal columns are empty`)
+    return [x, y]
+  })
+}
+
+/** Rebuilds the signed content from the visible sheets (exact decimal columns and content paths). */
+export function contentFromSheets(sheets: SheetCells): SignedContent {
+  const about = sheets.get(SHEET.about)
+  if (!about) throw new Error(`the sheet "${SHEET.about}" is missing`)
+  const rows: JsonRow[] = about.slice(ABOUT_FIRST_DATA_ROW).map((row) => {
+    const path = text(row[2])
+    const type = text(row[3]) as RowType | null
+    if (!path || !type) throw new Error(`${SHEET.about}: a row without content path or type`)
+    const raw = row[1] ?? null
+    return { path, type, value: typeof raw === 'string' ? unescapeText(raw) : raw }
+  })
+  const base = fromRows(rows) as unknown as SignedContent
+  const fill = base.fill ? { ...base.fill, values: pairsOf(sheets.get(SHEET.filled), SHEET.filled) } : null
+  return { ...base, points: pairsOf(sheets.get(SHEET.given), SHEET.given), fill }
+}

@@ -1,0 +1,101 @@
+import type { H3Event } from 'h3'
+import { QueryTypes } from 'sequelize'
+import { canonicalDecimal } from '../../shared/decimal-text'
+import { SIGNED_FORMAT, canonicalBytes, readWorkbookCells, signBytes, verifyWorkbookCells, writeSignedWorkbook, type Json, type Pair, type Person, type SignedContent } from '../lib/signing'
+import { guardXlsxZip } from '../lib/import/zip-guard'
+import { ImportRefused } from '../lib/import/limits'
+import type { OrgAccess } from '../utils/auth'
+import type { ExportVerdictDto } from '../../shared/types/exports'
+import { activeSigningKey, publicKeyById } from './signing-keys'
+
+type Row = Record<string, unknown>
+const person = (r: Row, p: string): Person | null => (r[`${p}_email`] ? { name: r[`${p}_name`] as string, email: r[`${p}_email`] as string } : null)
+const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null)
+const pairs = (rows: { x: string; y: string }[]): Pair[] => rows.map(r => [canonicalDecimal(r.x), canonicalDecimal(r.y)])
+
+async function pointsOf(table: 'version_points' | 'version_fill_points', versionId: string): Promise<Pair[]> {
+  return pairs(await useDb().query<{ x: string; y: string }>(`SELECT x::text AS x, y::text AS y FROM ${table} WHERE version_id = :versionId ORDER BY x`,
+    { replacements: { versionId }, type: QueryTypes.SELECT }))
+}
+
+/** The content object of a signed-off (or since withdrawn) version, exactly as it will be signed. */
+async function signedContent(access: OrgAccess, tableId: string, number: number, keyId: string): Promise<SignedContent> {
+  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('version')
+  const people = ['au:author_id', 'fb:filled_by', 'sb:submitted_by', 'ab:approved_by'].map((s) => {
+    const [p, col] = s.split(':')
+    return { join: `LEFT JOIN users ${p} ON ${p}.id = v.${col}`, cols: `${p}.name AS ${p}_name, ${p}.email AS ${p}_email` }
+  })
+  const [r] = await useDb().query<Row>(`
+    SELECT v.*, t.name AS table_name, t.kind, t.axis, t.axis_unit, t.value_unit, ${people.map(p => p.cols).join(', ')}
+    FROM table_versions v JOIN rate_tables t ON t.id = v.table_id ${people.map(p => p.join).join(' ')}
+    WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number`,
+  { replacements: { orgId: access.org.id, tableId, number }, type: QueryTypes.SELECT })
+  if (!r) notFound('version')
+  if (r.status !== 'approved' && r.status !== 'retired') throw createError({ statusCode: 409, statusMessage: 'Only a signed-off version can be exported with a signature.' })
+  const id = r.id as string
+  return {
+    format: SIGNED_FORMAT,
+    organisation: { slug: access.org.slug, name: access.org.name },
+    table: { id: tableId, name: r.table_name as string, kind: r.kind as string, axis: r.axis as string, axisUnit: r.axis_unit as string, valueUnit: r.value_unit as string },
+    version: { id, number, status: r.status as string, contentHash: r.content_hash as string, notes: r.notes as string },
+    points: await pointsOf('version_points', id),
+    fill: r.fill_spec
+      ? { spec: r.fill_spec as Json, rationale: (r.fill_rationale as string | null) ?? '', checks: (r.fill_diagnostics as Json) ?? null, money: (r.fill_money as Json) ?? null, filledBy: person(r, 'fb'), filledAt: iso(r.filled_at), values: await pointsOf('version_fill_points', id) }
+      : null,
+    madeBy: person(r, 'au'),
+    submittedBy: person(r, 'sb'),
+    submittedAt: iso(r.submitted_at),
+    approvedBy: person(r, 'ab'),
+    approvedAt: iso(r.approved_at),
+    signedAt: new Date().toISOString(),
+    keyId,
+  }
+}
+
+export async function exportSignedVersion(event: H3Event, access: OrgAccess, tableId: string, number: number): Promise<{ fileName: string; data: Buffer }> {
+  const key = await activeSigningKey(event, access.org.id)
+  const content = await signedContent(access, tableId, number, key.kid)
+  const signature = signBytes(canonicalBytes(content), key.privateKey)
+  const data = await writeSignedWorkbook(content, { signature, keyId: key.kid, x: key.x })
+  await audit(event, { orgId: access.org.id, action: 'export.download', objectType: 'table_version', objectId: content.version.id, detail: { tableId, number, keyId: key.kid, bytes: data.length, signedAt: content.signedAt } })
+  const safe = content.table.name.replace(/[^A-Za-z0-9 ._-]+/g, '').trim().replace(/\s+/g, '-').slice(0, 80) || 'table'
+  return { fileName: `${safe}-v${number}-signed.xlsx`, data }
+}
+
+/** Checks an uploaded workbook: signature, every cell, and where the version stands now. */
+export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: string, data: Buffer): Promise<ExportVerdictDto> {
+  if (!(data[0] === 0x50 && data[1] === 0x4b)) throw new ImportRefused(415, 'Upload the .xlsx workbook exactly as Knotwork exported it (this file is not an .xlsx workbook).')
+  await guardXlsxZip(data)
+  let sheets
+  try { sheets = await readWorkbookCells(data) } catch (error) { throw new ImportRefused(422, `The workbook cannot be read: ${(error as Error).message}.`) }
+  const keys = new Map<string, string | null>()
+  for (const r of sheets.get('Signature') ?? []) {
+    if (r[0] === 'Key id' && typeof r[1] === 'string') keys.set(r[1], await publicKeyById(access.org.id, r[1]))
+  }
+  const verdict = verifyWorkbookCells(sheets, kid => keys.get(kid) ?? null)
+  const base = { fileName, checkedAt: new Date().toISOString() }
+  let result: ExportVerdictDto
+  if (verdict.kind === 'not-signed') result = { ...base, verdict: 'not-signed', message: verdict.reason }
+  else if (verdict.kind === 'unknown-key') result = { ...base, verdict: 'unknown-key', keyId: verdict.keyId, message: `Signed with a key (${verdict.keyId}) that is not one of ${access.org.name}'s signing keys: either another organisation signed it, or it is not genuine.` }
+  else if (verdict.kind === 'altered') {
+    result = { ...base, verdict: 'altered', keyId: verdict.keyId, message: verdict.reason, differences: verdict.differences.map(d => ({ cell: d.cell, expected: d.expected === null ? null : String(d.expected), found: d.found === null ? null : String(d.found) })), differenceCount: verdict.differenceCount, signed: verdict.content ? summary(verdict.content) : null }
+  } else {
+    const c = verdict.content
+    const [now] = await useDb().query<Row>(`SELECT v.status, v.content_hash, s.number AS superseded_number FROM table_versions v LEFT JOIN table_versions s ON s.id = v.superseded_by
+      WHERE v.org_id = :orgId AND v.id = :id`, { replacements: { orgId: access.org.id, id: /^[0-9a-f-]{36}$/i.test(c.version.id) ? c.version.id : '00000000-0000-0000-0000-000000000000' }, type: QueryTypes.SELECT })
+    const status = now?.status as string | undefined
+    const kind = status === 'approved' ? 'genuine-current' : status === 'retired' ? 'genuine-superseded' : 'genuine-unknown-version'
+    const messages = {
+      'genuine-current': `Genuine: it matches signed-off version ${c.version.number} of ${c.table.name}, which is still the signed-off version.`,
+      'genuine-superseded': now?.superseded_number ? `Genuine, but since superseded: version ${c.version.number} of ${c.table.name} was replaced by version ${now.superseded_number as number}.` : `Genuine, but since withdrawn: version ${c.version.number} of ${c.table.name} is no longer in force.`,
+      'genuine-unknown-version': `The signature is genuine, but this organisation no longer holds version ${c.version.number} of ${c.table.name}.`,
+    } as const
+    result = { ...base, verdict: kind, keyId: verdict.keyId, message: messages[kind], signed: summary(c), supersededBy: (now?.superseded_number as number | null) ?? null }
+  }
+  await audit(event, { orgId: access.org.id, action: 'export.verify', detail: { fileName, verdict: result.verdict, keyId: 'keyId' in result ? result.keyId : null, version: result.signed?.version ?? null, differences: result.differenceCount ?? 0 } })
+  return result
+}
+
+function summary(c: SignedContent): NonNullable<ExportVerdictDto['signed']> {
+  return { tableId: c.table.id, tableName: c.table.name, version: c.version.number, approvedBy: c.approvedBy?.name ?? null, approvedAt: c.approvedAt, signedAt: c.signedAt, points: c.points.length, values: c.fill?.values.length ?? 0 }
+}

@@ -1,0 +1,27 @@
+import { ROLE_LABELS, type Role } from '../../shared/permissions'
+import type { OutgoingMail } from '../utils/mail'
+
+const esc = (v: string) => v.replace(/[&<>"']/g, c => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' })[c]!)
+
+function html(paragraphs: string[], link: { href: string; label: string }): string {
+  return `<div style="font-family:sans-serif;font-size:15px;line-height:1.5;color:#1f2a24;max-width:560px">
+${paragraphs.map(p => `<p>${esc(p)}</p>`).join('\n')}
+<p><a href="${esc(link.href)}" style="display:inline-block;background:#2f5d46;color:#fff;padding:10px 16px;border-radius:4px;text-decoration:none">${esc(link.label)}</a></p>
+<p style="color:#5b6660;font-size:13px">Or open this address: ${esc(link.href)}</p></div>`
+}
+
+export function invitationMail(to: string, orgName: string, inviter: string, role: Role, link: string, expiresAt: Date): OutgoingMail {
+  const lines = [
+    `${inviter} invites you to join ${orgName} on Knotwork as ${ROLE_LABELS[role]}.`,
+    `The link works once and until ${expiresAt.toUTCString()}. If you did not expect this, ignore this message.`,
+  ]
+  return { to, subject: `Join ${orgName} on Knotwork`, text: `${lines.join('\n\n')}\n\nAccept the invitation: ${link}\n`, html: html(lines, { href: link, label: 'Accept the invitation' }) }
+}
+
+export function passwordResetMail(to: string, link: string): OutgoingMail {
+  const lines = [
+    'Someone (we hope you) asked to set a new password for your Knotwork account.',
+    'The link works once, for one hour. Setting a new password signs you out everywhere. If you did not ask, ignore this message: your password stays as it is.',
+  ]
+  return { to, subject: 'Set a new Knotwork password', text: `${lines.join('\n\n')}\n\nSet a new password: ${link}\n`, html: html(lines, { href: link, label: 'Set a new password' }) }
+}

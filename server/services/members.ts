@@ -1,0 +1,46 @@
+import type { H3Event } from 'h3'
+import { Op, type Transaction } from 'sequelize'
+import type { Role } from '../../shared/permissions'
+import { Membership } from '../database/models'
+import type { OrgAccess } from '../utils/auth'
+
+/** The target membership, with every admin row of the organisation locked so "last admin" cannot race. */
+async function lockedMembership(orgId: string, userId: string, t: Transaction): Promise<{ target: Membership; admins: number }> {
+  const admins = await Membership.findAll({ where: { orgId, role: 'admin' }, transaction: t, lock: t.LOCK.UPDATE })
+  const target = await Membership.findOne({ where: { orgId, userId }, transaction: t, lock: t.LOCK.UPDATE })
+  if (!target) notFound('member')
+  return { target, admins: admins.length }
+}
+
+function keepOneAdmin(target: Membership, admins: number, what: string) {
+  if (target.role === 'admin' && admins <= 1) {
+    throw createError({ statusCode: 409, statusMessage: `${what}: an organisation needs at least one administrator. Make someone else an administrator first.` })
+  }
+}
+
+export async function changeRole(event: H3Event, access: OrgAccess, userId: string, role: Role): Promise<void> {
+  await inTransaction(async (t) => {
+    const { target, admins } = await lockedMembership(access.org.id, userId, t)
+    if (target.role === role) return
+    if (role !== 'admin') keepOneAdmin(target, admins, 'This role cannot change')
+    const from = target.role
+    await target.update({ role }, { transaction: t })
+    await audit(event, { orgId: access.org.id, action: 'member.role-change', objectType: 'user', objectId: userId, detail: { from, to: role } }, t)
+  })
+}
+
+/** Removes a member; their access ends with the commit (roles are read per request) and their sessions end at once. */
+export async function removeMember(event: H3Event, access: OrgAccess, userId: string): Promise<void> {
+  const removed = await inTransaction(async (t) => {
+    const { target, admins } = await lockedMembership(access.org.id, userId, t)
+    keepOneAdmin(target, admins, 'This person cannot be removed')
+    await target.destroy({ transaction: t })
+    await audit(event, { orgId: access.org.id, action: 'member.remove', objectType: 'user', objectId: userId, detail: { role: target.role } }, t)
+    return target
+  })
+  await revokeSessions(removed.userId, `removed from ${access.org.slug}`)
+}
+
+export async function isMember(orgId: string, userId: string, t?: Transaction): Promise<boolean> {
+  return !!(await Membership.findOne({ where: { orgId, userId: { [Op.eq]: userId } }, transaction: t }))
+}

@@ -1,0 +1,44 @@
+import type { H3Event } from 'h3'
+import { Op } from 'sequelize'
+import { PasswordReset, User } from '../database/models'
+import { hashPassword } from '../lib/password'
+import { hashToken, newToken } from '../lib/tokens'
+import { passwordResetMail } from './mail-templates'
+
+const RESET_MINUTES = 60
+const MAX_OPEN_RESETS = 5
+
+/**
+ * Starts a reset for a registered address; does nothing visible for any other. The e-mail goes out after the
+ * answer, so both cases answer alike and in about the same time.
+ */
+export async function requestPasswordReset(event: H3Event, email: string): Promise<void> {
+  const user = await User.findOne({ where: { email } })
+  if (!user) return
+  const recent = await PasswordReset.count({ where: { userId: user.id, usedAt: null, expiresAt: { [Op.gt]: new Date() } } })
+  if (recent >= MAX_OPEN_RESETS) return // bounds the mail one person can be sent
+  const { token, hash } = newToken()
+  await inTransaction(async (t) => {
+    await PasswordReset.create({ userId: user.id, tokenHash: hash, expiresAt: new Date(Date.now() + RESET_MINUTES * 60_000) }, { transaction: t })
+    await audit(event, { action: 'auth.password-reset-request', objectType: 'user', objectId: user.id, actor: null, detail: { email } }, t)
+  })
+  const mail = passwordResetMail(user.email, appLink(`/reset-password/${token}`))
+  sendMail(mail).catch(error => console.error(`[mail] password reset for ${user.id} not sent: ${(error as Error).message}`))
+}
+
+/** Sets the new password once per token; every open reset of the person is spent and all sessions end. */
+export async function confirmPasswordReset(event: H3Event, token: string, password: string): Promise<void> {
+  const passwordHash = await hashPassword(password)
+  const userId = await inTransaction(async (t) => {
+    const reset = await PasswordReset.findOne({ where: { tokenHash: hashToken(token) }, transaction: t, lock: t.LOCK.UPDATE })
+    if (!reset || reset.usedAt || reset.expiresAt.getTime() <= Date.now()) {
+      throw createError({ statusCode: 400, statusMessage: 'This reset link is not valid any more: it was used or it expired. Ask for a new one.' })
+    }
+    const user = (await User.findByPk(reset.userId, { transaction: t }))!
+    await user.update({ passwordHash, passwordChangedAt: new Date() }, { transaction: t })
+    await PasswordReset.update({ usedAt: new Date() }, { where: { userId: user.id, usedAt: null }, transaction: t })
+    await audit(event, { action: 'auth.password-reset', objectType: 'user', objectId: user.id, actor: { id: user.id, email: user.email } }, t)
+    return user.id
+  })
+  await revokeSessions(userId, 'password reset')
+}

@@ -1,0 +1,82 @@
+import { QueryTypes, type Transaction } from 'sequelize'
+import { can } from '../../shared/permissions'
+import type { PersonRef, ReviewQueueItemDto, ReviewStateDto, VersionCommentDto } from '../../shared/types/review'
+import type { VersionStatus } from '../../shared/tables'
+import type { OrgAccess } from '../utils/auth'
+
+type Row = Record<string, unknown>
+const person = (r: Row, p: string): PersonRef | null => (r[`${p}_id`] ? { id: r[`${p}_id`] as string, name: r[`${p}_name`] as string, email: r[`${p}_email`] as string } : null)
+const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null)
+const join = (col: string, p: string) => `LEFT JOIN users ${p} ON ${p}.id = v.${col}`
+const cols = (p: string) => `${p}.id AS ${p}_id, ${p}.name AS ${p}_name, ${p}.email AS ${p}_email`
+
+export interface VersionRow {
+  id: string; number: number; status: VersionStatus; table_id: string; table_name: string
+  author_id: string | null; filled_by: string | null; submitted_by: string | null; has_fill: boolean
+}
+
+/** The version (row-locked when a transaction is given), or 404 for a missing one or another organisation's. */
+export async function findVersion(orgId: string, tableId: string, number: number, t?: Transaction): Promise<VersionRow> {
+  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('version')
+  const [row] = await useDb().query<VersionRow>(`
+    SELECT v.id, v.number, v.status, v.table_id, rt.name AS table_name, v.author_id, v.filled_by, v.submitted_by,
+           (v.fill_spec IS NOT NULL AND EXISTS (SELECT 1 FROM version_fill_points f WHERE f.version_id = v.id)) AS has_fill
+    FROM table_versions v JOIN rate_tables rt ON rt.id = v.table_id
+    WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number ${t ? 'FOR UPDATE OF v' : ''}`,
+  { replacements: { orgId, tableId, number }, type: QueryTypes.SELECT, transaction: t })
+  return row ?? notFound('version')
+}
+
+/** Maker-checker: the people who made this version (author, filler, submitter) may not sign it off. */
+export function makers(v: Pick<VersionRow, 'author_id' | 'filled_by' | 'submitted_by'>): string[] {
+  return [v.author_id, v.filled_by, v.submitted_by].filter((id): id is string => !!id)
+}
+
+export async function listComments(versionId: string): Promise<VersionCommentDto[]> {
+  const rows = await useDb().query<Row>(`
+    SELECT c.id, c.kind, c.body, c.created_at, a.id AS a_id, a.name AS a_name, a.email AS a_email
+    FROM version_comments c LEFT JOIN users a ON a.id = c.author_id WHERE c.version_id = :versionId ORDER BY c.created_at, c.id`,
+  { replacements: { versionId }, type: QueryTypes.SELECT })
+  return rows.map(r => ({ id: r.id as string, kind: r.kind as VersionCommentDto['kind'], body: r.body as string, author: person(r, 'a'), createdAt: iso(r.created_at)! }))
+}
+
+export async function reviewState(access: OrgAccess, tableId: string, number: number): Promise<ReviewStateDto> {
+  const v = await findVersion(access.org.id, tableId, number)
+  const [r] = await useDb().query<Row>(`
+    SELECT v.submitted_at, v.approved_at, v.retired_at, v.retire_reason, s2.number AS superseded_number,
+           ${cols('au')}, ${cols('fb')}, ${cols('sb')}, ${cols('ab')}, ${cols('rb')}
+    FROM table_versions v ${join('author_id', 'au')} ${join('filled_by', 'fb')} ${join('submitted_by', 'sb')} ${join('approved_by', 'ab')} ${join('retired_by', 'rb')}
+    LEFT JOIN table_versions s2 ON s2.id = v.superseded_by WHERE v.id = :id`,
+  { replacements: { id: v.id }, type: QueryTypes.SELECT })
+  const madeThis = makers(v).includes(access.user.id)
+  const mayDecide = can(access.role, 'reviews:decide')
+  return {
+    versionId: v.id, number: v.number, status: v.status, hasFill: v.has_fill,
+    author: person(r!, 'au'), filledBy: person(r!, 'fb'), submittedBy: person(r!, 'sb'), submittedAt: iso(r!.submitted_at),
+    approvedBy: person(r!, 'ab'), approvedAt: iso(r!.approved_at), retiredBy: person(r!, 'rb'), retiredAt: iso(r!.retired_at),
+    retireReason: (r!.retire_reason as string | null) ?? null, supersededBy: (r!.superseded_number as number | null) ?? null,
+    comments: await listComments(v.id),
+    you: {
+      madeThis,
+      canSubmit: can(access.role, 'reviews:submit') && v.status === 'draft' && v.has_fill,
+      canDecide: mayDecide && v.status === 'in-review' && !madeThis,
+      canRetire: mayDecide && v.status === 'approved',
+      canExport: can(access.role, 'exports:download') && (v.status === 'approved' || v.status === 'retired'),
+      decideBlockedReason: v.status === 'in-review' && mayDecide && madeThis ? 'You made, filled or submitted this version, so another actuary must sign it off.' : null,
+    },
+  }
+}
+
+/** Versions awaiting a second check in one organisation, oldest first. */
+export async function reviewQueue(access: OrgAccess): Promise<ReviewQueueItemDto[]> {
+  const rows = await useDb().query<Row>(`
+    SELECT v.id, v.number, v.table_id, rt.name AS table_name, v.submitted_at, v.filled_by, ${cols('sb')}, ${cols('au')}
+    FROM table_versions v JOIN rate_tables rt ON rt.id = v.table_id ${join('submitted_by', 'sb')} ${join('author_id', 'au')}
+    WHERE v.org_id = :orgId AND v.status = 'in-review' ORDER BY v.submitted_at NULLS FIRST, rt.name`,
+  { replacements: { orgId: access.org.id }, type: QueryTypes.SELECT })
+  return rows.map(r => ({
+    tableId: r.table_id as string, tableName: r.table_name as string, versionId: r.id as string, number: r.number as number,
+    submittedBy: person(r, 'sb'), submittedAt: iso(r.submitted_at), author: person(r, 'au'),
+    yours: [r.au_id, r.sb_id, r.filled_by].includes(access.user.id),
+  }))
+}

@@ -1,0 +1,106 @@
+import type { H3Event } from 'h3'
+import { QueryTypes, type Transaction } from 'sequelize'
+import type { ReviewStateDto } from '../../shared/types/review'
+import type { CommentKind } from '../../shared/types/review'
+import type { OrgAccess } from '../utils/auth'
+import { findVersion, makers, reviewState, type VersionRow } from './review-queries'
+import { notifyReviewDecided, notifyReviewRequested, type ReviewMailContext } from './review-mail'
+
+// Maker-checker: submit (draft -> in-review), sign off (in-review -> approved, the previous approved
+// version -> retired), send back (in-review -> draft) and withdraw (approved -> retired).
+
+const conflict = (statusMessage: string): never => { throw createError({ statusCode: 409, statusMessage }) }
+
+async function addComment(t: Transaction, access: OrgAccess, versionId: string, kind: CommentKind, body: string) {
+  await useDb().query('INSERT INTO version_comments (org_id, version_id, author_id, kind, body) VALUES (:org, :versionId, :author, :kind, :body)',
+    { replacements: { org: access.org.id, versionId, author: access.user.id, kind, body }, transaction: t })
+}
+
+function mailContext(access: OrgAccess, v: VersionRow): ReviewMailContext {
+  return { orgId: access.org.id, orgSlug: access.org.slug, orgName: access.org.name, tableId: v.table_id, tableName: v.table_name, number: v.number, actorName: access.user.name }
+}
+
+const auditVersion = (event: H3Event, access: OrgAccess, v: VersionRow, action: string, detail: Record<string, unknown>, t: Transaction) =>
+  audit(event, { orgId: access.org.id, action, objectType: 'table_version', objectId: v.id, detail: { tableId: v.table_id, number: v.number, ...detail } }, t)
+
+export async function submitForReview(event: H3Event, access: OrgAccess, tableId: string, number: number, note?: string): Promise<ReviewStateDto> {
+  const v = await inTransaction(async (t) => {
+    const v = await findVersion(access.org.id, tableId, number, t)
+    if (v.status !== 'draft') conflict('Only a working draft can be submitted for a second check.')
+    if (!v.has_fill) conflict('Record a fill for this draft first: a second check needs the chosen method and its filled values.')
+    await useDb().query(`UPDATE table_versions SET status = 'in-review', submitted_by = :user, submitted_at = now(), lock_version = lock_version + 1, updated_at = now() WHERE id = :id`,
+      { replacements: { user: access.user.id, id: v.id }, transaction: t })
+    await addComment(t, access, v.id, 'submit', note || 'Submitted for a second check.')
+    await auditVersion(event, access, v, 'version.submit', { note: note ?? null }, t)
+    return { ...v, submitted_by: access.user.id }
+  })
+  await notifyReviewRequested(mailContext(access, v), makers(v), note)
+  return reviewState(access, tableId, number)
+}
+
+/** Signs off someone else's version; refuses the caller's own work with 403 (also re-checked under the row lock). */
+export async function approveVersion(event: H3Event, access: OrgAccess, tableId: string, number: number, comment?: string): Promise<ReviewStateDto> {
+  const ownWork = () => createError({ statusCode: 403, statusMessage: 'You made, filled or submitted this version, so you cannot sign it off: another actuary must give the second check.' })
+  const before = await findVersion(access.org.id, tableId, number)
+  if (makers(before).includes(access.user.id)) {
+    await audit(event, { orgId: access.org.id, action: 'version.approve', outcome: 'denied', objectType: 'table_version', objectId: before.id, detail: { tableId, number, reason: 'own work' } })
+    throw ownWork()
+  }
+  const v = await inTransaction(async (t) => {
+    await useDb().query('SELECT id FROM rate_tables WHERE id = :tableId AND org_id = :org FOR UPDATE', { replacements: { tableId, org: access.org.id }, transaction: t })
+    const v = await findVersion(access.org.id, tableId, number, t)
+    if (makers(v).includes(access.user.id)) throw ownWork()
+    if (v.status !== 'in-review') conflict('Only a version awaiting a second check can be signed off.')
+    if (!v.has_fill) conflict('This version has no recorded fill; send it back.')
+    const previous = await useDb().query<{ id: string; number: number }>(`SELECT id, number FROM table_versions WHERE table_id = :tableId AND status = 'approved' AND id <> :id`,
+      { replacements: { tableId, id: v.id }, type: QueryTypes.SELECT, transaction: t })
+    await useDb().query(`UPDATE table_versions SET status = 'approved', approved_by = :user, approved_at = now(), updated_at = now() WHERE id = :id`,
+      { replacements: { user: access.user.id, id: v.id }, transaction: t })
+    for (const p of previous) {
+      await useDb().query(`UPDATE table_versions SET status = 'retired', retired_by = :user, retired_at = now(), retire_reason = :reason, superseded_by = :id, updated_at = now() WHERE id = :prev`,
+        { replacements: { user: access.user.id, reason: `Superseded by version ${v.number}.`, id: v.id, prev: p.id }, transaction: t })
+      await audit(event, { orgId: access.org.id, action: 'version.supersede', objectType: 'table_version', objectId: p.id, detail: { tableId, number: p.number, supersededBy: v.number } }, t)
+    }
+    await addComment(t, access, v.id, 'approve', comment || 'Signed off.')
+    await auditVersion(event, access, v, 'version.approve', { comment: comment ?? null, supersedes: previous.map(p => p.number) }, t)
+    return v
+  })
+  await notifyReviewDecided(mailContext(access, v), makers(v), 'approved', comment)
+  return reviewState(access, tableId, number)
+}
+
+export async function sendBack(event: H3Event, access: OrgAccess, tableId: string, number: number, comment: string): Promise<ReviewStateDto> {
+  const v = await inTransaction(async (t) => {
+    const v = await findVersion(access.org.id, tableId, number, t)
+    if (makers(v).includes(access.user.id)) throw createError({ statusCode: 403, statusMessage: 'You made this version: to change it yourself, ask a reviewer to send it back, or comment on it.' })
+    if (v.status !== 'in-review') conflict('Only a version awaiting a second check can be sent back.')
+    await useDb().query(`UPDATE table_versions SET status = 'draft', submitted_by = NULL, submitted_at = NULL, lock_version = lock_version + 1, updated_at = now() WHERE id = :id`,
+      { replacements: { id: v.id }, transaction: t })
+    await addComment(t, access, v.id, 'send-back', comment)
+    await auditVersion(event, access, v, 'version.send-back', { comment }, t)
+    return v
+  })
+  await notifyReviewDecided(mailContext(access, v), makers(v), 'sent back', comment)
+  return reviewState(access, tableId, number)
+}
+
+export async function retireVersion(event: H3Event, access: OrgAccess, tableId: string, number: number, reason: string): Promise<ReviewStateDto> {
+  await inTransaction(async (t) => {
+    const v = await findVersion(access.org.id, tableId, number, t)
+    if (v.status !== 'approved') conflict('Only a signed-off version can be withdrawn.')
+    await useDb().query(`UPDATE table_versions SET status = 'retired', retired_by = :user, retired_at = now(), retire_reason = :reason, updated_at = now() WHERE id = :id`,
+      { replacements: { user: access.user.id, reason, id: v.id }, transaction: t })
+    await addComment(t, access, v.id, 'retire', reason)
+    await auditVersion(event, access, v, 'version.retire', { reason }, t)
+  })
+  return reviewState(access, tableId, number)
+}
+
+export async function commentOn(event: H3Event, access: OrgAccess, tableId: string, number: number, body: string): Promise<ReviewStateDto> {
+  await inTransaction(async (t) => {
+    const v = await findVersion(access.org.id, tableId, number, t)
+    await addComment(t, access, v.id, 'comment', body)
+    await auditVersion(event, access, v, 'version.comment', { length: body.length }, t)
+  })
+  return reviewState(access, tableId, number)
+}

@@ -1,0 +1,61 @@
+import type { H3Event } from 'h3'
+import { QueryTypes, type Transaction } from 'sequelize'
+import type { KeyObject } from 'node:crypto'
+import { generateSigningKey, keyIdOf, openPrivateKey, publicJwk, sealPrivateKey, type PublicJwk } from '../lib/signing'
+import type { OrgAccess } from '../utils/auth'
+
+// Each organisation's Ed25519 key pair: created on first export, rotated by retiring the active
+// key and creating a new one. Retired public keys stay published so older exports still verify.
+export interface SigningKeyDto extends PublicJwk { status: 'active' | 'retired'; createdAt: string; retiredAt: string | null }
+
+function secret(): string {
+  const s = String(useRuntimeConfig().signingSecret || '')
+  if (s.length < 32) throw createError({ statusCode: 503, statusMessage: 'Signing is not configured on this server (NUXT_SIGNING_SECRET of at least 32 characters). Start it through npm start.' })
+  return s
+}
+
+async function createKey(orgId: string, t: Transaction): Promise<{ kid: string; x: string }> {
+  const { x, privatePkcs8 } = generateSigningKey()
+  const kid = keyIdOf(x)
+  await useDb().query('INSERT INTO org_signing_keys (org_id, kid, public_x, private_sealed) VALUES (:orgId, :kid, :x, :sealed)',
+    { replacements: { orgId, kid, x, sealed: sealPrivateKey(privatePkcs8, secret(), orgId, kid) }, transaction: t })
+  return { kid, x }
+}
+
+/** The active key (created now when the organisation has none), with its private key opened. */
+export async function activeSigningKey(event: H3Event, orgId: string): Promise<{ kid: string; x: string; privateKey: KeyObject }> {
+  const key = await inTransaction(async (t) => {
+    await useDb().query('SELECT pg_advisory_xact_lock(hashtext(:k))', { replacements: { k: `signing-key:${orgId}` }, transaction: t })
+    const [row] = await useDb().query<{ kid: string; public_x: string; private_sealed: string }>(
+      'SELECT kid, public_x, private_sealed FROM org_signing_keys WHERE org_id = :orgId AND status = \'active\'', { replacements: { orgId }, type: QueryTypes.SELECT, transaction: t })
+    if (row) return { kid: row.kid, x: row.public_x, sealed: row.private_sealed }
+    const created = await createKey(orgId, t)
+    await audit(event, { orgId, action: 'signing-key.create', objectType: 'signing_key', objectId: created.kid, detail: { kid: created.kid } }, t)
+    const [fresh] = await useDb().query<{ private_sealed: string }>('SELECT private_sealed FROM org_signing_keys WHERE kid = :kid', { replacements: { kid: created.kid }, type: QueryTypes.SELECT, transaction: t })
+    return { ...created, sealed: fresh!.private_sealed }
+  })
+  return { kid: key.kid, x: key.x, privateKey: openPrivateKey(key.sealed, secret(), orgId, key.kid) }
+}
+
+export async function listSigningKeys(orgId: string): Promise<SigningKeyDto[]> {
+  const rows = await useDb().query<{ public_x: string; status: 'active' | 'retired'; created_at: string; retired_at: string | null }>(
+    'SELECT public_x, status, created_at, retired_at FROM org_signing_keys WHERE org_id = :orgId ORDER BY created_at DESC', { replacements: { orgId }, type: QueryTypes.SELECT })
+  return rows.map(r => ({ ...publicJwk(r.public_x), status: r.status, createdAt: new Date(r.created_at).toISOString(), retiredAt: r.retired_at ? new Date(r.retired_at).toISOString() : null }))
+}
+
+/** Public key (x) of a key id of this organisation, current or retired; null when unknown. */
+export async function publicKeyById(orgId: string, kid: string): Promise<string | null> {
+  const [row] = await useDb().query<{ public_x: string }>('SELECT public_x FROM org_signing_keys WHERE org_id = :orgId AND kid = :kid', { replacements: { orgId, kid }, type: QueryTypes.SELECT })
+  return row?.public_x ?? null
+}
+
+export async function rotateSigningKey(event: H3Event, access: OrgAccess): Promise<SigningKeyDto[]> {
+  await inTransaction(async (t) => {
+    await useDb().query('SELECT pg_advisory_xact_lock(hashtext(:k))', { replacements: { k: `signing-key:${access.org.id}` }, transaction: t })
+    const retired = await useDb().query<{ kid: string }>('UPDATE org_signing_keys SET status = \'retired\', retired_at = now() WHERE org_id = :orgId AND status = \'active\' RETURNING kid',
+      { replacements: { orgId: access.org.id }, type: QueryTypes.SELECT, transaction: t })
+    const created = await createKey(access.org.id, t)
+    await audit(event, { orgId: access.org.id, action: 'signing-key.rotate', objectType: 'signing_key', objectId: created.kid, detail: { retired: retired.map(r => r.kid), created: created.kid } }, t)
+  })
+  return listSigningKeys(access.org.id)
+}

@@ -1,0 +1,52 @@
+import { QueryTypes } from 'sequelize'
+import { D, canonicalDecimal } from '../../shared/decimal-text'
+import type { DiffRowDto, DiffSideDto, VersionDiffDto } from '../../shared/types/diff'
+
+// Two versions of one table compared exactly (decimal.js): given points, filled values, fill settings, money view.
+type Row = Record<string, unknown>
+interface Side { dto: DiffSideDto; spec: Record<string, unknown> | null; money: { figures?: { key: string; label: string; value: string | null }[] } | null; points: Map<string, string>; values: Map<string, string> }
+
+async function load(orgId: string, tableId: string, number: number): Promise<Side> {
+  const [v] = await useDb().query<Row>('SELECT id, number, status, fill_spec, fill_money FROM table_versions WHERE org_id = :orgId AND table_id = :tableId AND number = :number',
+    { replacements: { orgId, tableId, number }, type: QueryTypes.SELECT })
+  if (!v) notFound('version')
+  const read = async (t: string) => new Map((await useDb().query<{ x: string; y: string }>(`SELECT x::text AS x, y::text AS y FROM ${t} WHERE version_id = :id ORDER BY x`,
+    { replacements: { id: v.id }, type: QueryTypes.SELECT })).map(r => [canonicalDecimal(r.x), canonicalDecimal(r.y)] as const))
+  const spec = (v.fill_spec as Record<string, unknown> | null) ?? null
+  const points = await read('version_points')
+  const values = await read('version_fill_points')
+  return {
+    spec, points, values, money: (v.fill_money as Side['money']) ?? null,
+    dto: { number: v.number as number, status: v.status as string, method: (spec?.method as string) ?? null, options: (spec?.options as Record<string, string>) ?? {}, transform: (spec?.transform as string) ?? null, precision: (spec?.precision as number) ?? null, points: points.size, values: values.size },
+  }
+}
+
+function compareMaps(a: Map<string, string>, b: Map<string, string>) {
+  const xs = [...new Set([...a.keys(), ...b.keys()])].sort((p, q) => new D(p).cmp(new D(q)))
+  let largest: { x: string; difference: string } | null = null
+  const rows: DiffRowDto[] = xs.map((x) => {
+    const va = a.get(x) ?? null
+    const vb = b.get(x) ?? null
+    if (va === null) return { x, a: va, b: vb, change: 'added', difference: null }
+    if (vb === null) return { x, a: va, b: vb, change: 'removed', difference: null }
+    const d = new D(vb).minus(va)
+    if (!d.isZero() && (!largest || d.abs().gt(new D(largest.difference).abs()))) largest = { x, difference: canonicalDecimal(d) }
+    return { x, a: va, b: vb, change: d.isZero() ? 'same' : 'changed', difference: canonicalDecimal(d) }
+  })
+  const n = (c: DiffRowDto['change']) => rows.filter(r => r.change === c).length
+  return { rows, added: n('added'), removed: n('removed'), changed: n('changed'), largest }
+}
+
+const show = (v: unknown) => (v === undefined || v === null ? '—' : typeof v === 'string' ? v : JSON.stringify(v))
+
+export async function diffVersions(orgId: string, tableId: string, a: number, b: number): Promise<VersionDiffDto> {
+  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('table')
+  const [A, B] = [await load(orgId, tableId, a), await load(orgId, tableId, b)]
+  const keys = [...new Set([...Object.keys(A.spec ?? {}), ...Object.keys(B.spec ?? {})])].filter(k => !['engineVersion', 'knotCount'].includes(k)).sort()
+  const settings = keys.map(k => ({ field: k, a: show(A.spec?.[k]), b: show(B.spec?.[k]) })).filter(s => s.a !== s.b)
+  const figures = new Map<string, { label: string; a: string | null; b: string | null }>()
+  for (const f of A.money?.figures ?? []) figures.set(f.key, { label: f.label, a: f.value, b: null })
+  for (const f of B.money?.figures ?? []) figures.set(f.key, { label: f.label, a: figures.get(f.key)?.a ?? null, b: f.value })
+  const money = [...figures].map(([key, f]) => ({ key, ...f, difference: f.a !== null && f.b !== null ? canonicalDecimal(new D(f.b).minus(f.a)) : null }))
+  return { a: A.dto, b: B.dto, points: compareMaps(A.points, B.points), values: compareMaps(A.values, B.values), settings, money }
+}

@@ -1,0 +1,40 @@
+import { z } from 'zod'
+import { AXES, AXIS_UNITS, TABLE_KINDS, VALUE_UNITS } from '../tables'
+import { IMPORT_COLUMNS_CAP } from '../import-caps'
+
+// The mapping a person builds in the wizard; the preview and the final create both
+// re-validate the stored cells against it on the server.
+export const importColumnSchema = z.object({
+  index: z.number().int().min(0).max(IMPORT_COLUMNS_CAP - 1),
+  name: z.string().trim().min(1, { message: 'Give each new table a name' }).max(160),
+  kind: z.enum(TABLE_KINDS),
+  valueUnit: z.enum(VALUE_UNITS),
+})
+
+export const importMappingSchema = z.object({
+  sheet: z.string().min(1).max(200),
+  headerRow: z.number().int().min(0),
+  axisColumn: z.number().int().min(0).max(IMPORT_COLUMNS_CAP - 1),
+  axis: z.enum(AXES),
+  axisUnit: z.enum(AXIS_UNITS),
+  columns: z.array(importColumnSchema).min(1, { message: 'Choose at least one value column' }).max(IMPORT_COLUMNS_CAP),
+  /** fixes typed in the preview, keyed "row:col" (0-based sheet coordinates) */
+  edits: z.record(z.string().regex(/^\d+:\d+$/), z.string().max(60)).default({}),
+  description: z.string().max(4000).default(''),
+}).superRefine((m, ctx) => {
+  const names = new Set<string>()
+  m.columns.forEach((c, i) => {
+    if (c.index === m.axisColumn) ctx.addIssue({ code: 'custom', path: ['columns', i, 'index'], message: 'The axis column cannot also be a value column' })
+    const key = c.name.toLowerCase()
+    if (names.has(key)) ctx.addIssue({ code: 'custom', path: ['columns', i, 'name'], message: `Two new tables are both called "${c.name}"` })
+    names.add(key)
+  })
+})
+
+export const importCommitSchema = z.object({
+  mapping: importMappingSchema,
+  /** warnings must be accepted explicitly; errors always block */
+  acceptWarnings: z.boolean().default(false),
+})
+
+export type ImportMapping = z.infer<typeof importMappingSchema>

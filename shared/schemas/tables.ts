@@ -1,0 +1,48 @@
+import { z } from 'zod'
+import { AXES, AXIS_UNITS, TABLE_KINDS, VALUE_UNITS } from '../tables'
+import { MAX_SIGNIFICANT_DIGITS, canonicalDecimal, parseNumberText } from '../decimal-text'
+
+// Shared by the points grid (vee-validate through composables/zodForm.ts) and the handlers.
+export const decimalText = z.string().trim()
+  .min(1, { message: 'Enter a number' })
+  .max(60, { message: `Use at most ${MAX_SIGNIFICANT_DIGITS} significant digits` })
+  .refine(v => parseNumberText(v).ok, { message: 'Enter a number like 0.0123, 1.23% or 1,250' })
+
+/** A stored point: canonical per-unit decimals (what the grid sends after converting units). */
+export const pointSchema = z.object({
+  x: z.string().regex(/^-?\d+(\.\d+)?$/, { message: 'The axis value must be a plain decimal' }),
+  y: z.string().regex(/^-?\d+(\.\d+)?$/, { message: 'The value must be a plain decimal' }),
+})
+
+export const MAX_POINTS = 20_000
+
+export const savePointsSchema = z.object({
+  lockVersion: z.number().int().min(0),
+  points: z.array(pointSchema).min(1, { message: 'A version needs at least one point' }).max(MAX_POINTS),
+  notes: z.string().max(4000).optional(),
+}).superRefine((v, ctx) => {
+  const seen = new Set<string>()
+  v.points.forEach((p, i) => {
+    const key = canonicalDecimal(p.x)
+    if (seen.has(key)) ctx.addIssue({ code: 'custom', path: ['points', i, 'x'], message: `The axis value ${p.x} appears twice` })
+    seen.add(key)
+  })
+})
+
+/** One cell being edited in the grid, as the person typed it (in the table's display unit). */
+export const pointEditSchema = z.object({ x: decimalText, y: decimalText })
+
+export const tableUpdateSchema = z.object({
+  name: z.string().trim().min(1, { message: 'Enter a name' }).max(160).optional(),
+  kind: z.enum(TABLE_KINDS).optional(),
+  axis: z.enum(AXES).optional(),
+  axisUnit: z.enum(AXIS_UNITS).optional(),
+  valueUnit: z.enum(VALUE_UNITS).optional(),
+  description: z.string().max(4000).optional(),
+  tags: z.array(z.string().trim().min(1).max(40)).max(20).optional(),
+})
+
+export const newDraftSchema = z.object({ fromNumber: z.number().int().min(1) })
+
+export type SavePointsInput = z.infer<typeof savePointsSchema>
+export type TableUpdateInput = z.infer<typeof tableUpdateSchema>

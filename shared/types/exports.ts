@@ -1,0 +1,16 @@
+// The answer to "is this signed workbook genuine?".
+export type ExportVerdictKind = 'genuine-current' | 'genuine-superseded' | 'genuine-unknown-version' | 'altered' | 'unknown-key' | 'not-signed'
+
+export interface ExportVerdictDto {
+  verdict: ExportVerdictKind
+  message: string
+  fileName: string
+  checkedAt: string
+  keyId?: string
+  /** what the signature covers (when it still matches a content) */
+  signed?: { tableId: string; tableName: string; version: number; approvedBy: string | null; approvedAt: string | null; signedAt: string; points: number; values: number } | null
+  supersededBy?: number | null
+  /** cells that differ from the signed content, like "Filled values!B17" */
+  differences?: { cell: string; expected: string | null; found: string | null }[]
+  differenceCount?: number
+}

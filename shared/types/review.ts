@@ -1,0 +1,37 @@
+import type { VersionStatus } from '../tables'
+
+export interface PersonRef { id: string; name: string; email: string }
+export type CommentKind = 'comment' | 'submit' | 'send-back' | 'approve' | 'retire'
+export interface VersionCommentDto { id: string; kind: CommentKind; body: string; author: PersonRef | null; createdAt: string }
+
+/** Everything the review panel of one version shows; `you` is worked out on the server for the caller. */
+export interface ReviewStateDto {
+  versionId: string
+  number: number
+  status: VersionStatus
+  hasFill: boolean
+  author: PersonRef | null
+  filledBy: PersonRef | null
+  submittedBy: PersonRef | null
+  submittedAt: string | null
+  approvedBy: PersonRef | null
+  approvedAt: string | null
+  retiredBy: PersonRef | null
+  retiredAt: string | null
+  retireReason: string | null
+  supersededBy: number | null
+  comments: VersionCommentDto[]
+  you: { madeThis: boolean; canSubmit: boolean; canDecide: boolean; canRetire: boolean; canExport: boolean; decideBlockedReason: string | null }
+}
+
+export interface ReviewQueueItemDto {
+  tableId: string
+  tableName: string
+  versionId: string
+  number: number
+  submittedBy: PersonRef | null
+  submittedAt: string | null
+  author: PersonRef | null
+  /** true when the caller made, filled or submitted it: someone else must sign it off */
+  yours: boolean
+}

@@ -1,0 +1,78 @@
+import type { Axis, AxisUnit, TableKind, ValueUnit, VersionStatus } from '../tables'
+
+export interface PointDto { x: string; y: string } // stored per-unit decimals as strings
+
+export interface VersionSummaryDto {
+  id: string
+  number: number
+  status: VersionStatus
+  author: { id: string; name: string } | null
+  notes: string
+  contentHash: string
+  lockVersion: number
+  pointCount: number
+  createdAt: string
+  updatedAt: string
+}
+
+export interface VersionDto extends VersionSummaryDto { points: PointDto[] }
+
+export interface TableDto {
+  id: string
+  name: string
+  kind: TableKind
+  axis: Axis
+  axisUnit: AxisUnit
+  valueUnit: ValueUnit
+  description: string
+  tags: string[]
+  createdAt: string
+  updatedAt: string
+  versions: VersionSummaryDto[]
+}
+
+export interface ImportFinding {
+  severity: 'error' | 'warning'
+  code: string
+  sheet: string
+  /** A1-style address when the finding is about one cell */
+  cell: string | null
+  row: number | null // 0-based sheet row
+  col: number | null // 0-based sheet column
+  message: string
+}
+
+export interface ImportSheetSummary { name: string; rowCount: number; colCount: number; headerGuess: number }
+
+export interface ImportDto {
+  id: string
+  fileName: string
+  fileKind: 'xlsx' | 'csv'
+  sizeBytes: number
+  sheets: ImportSheetSummary[]
+  createdAt: string
+  expiresAt: string
+}
+
+export interface ColumnSuggestion { index: number; header: string; role: 'axis' | 'value' | 'ignore'; kind: TableKind; valueUnit: ValueUnit; unitReason: string | null }
+
+export interface ImportSheetDto {
+  name: string
+  /** the first rows, as text, for picking the header row */
+  head: (string | null)[][]
+  rowCount: number
+  colCount: number
+  headerGuess: number
+}
+
+export interface ImportPreviewDto {
+  findings: ImportFinding[]
+  errors: number
+  warnings: number
+  tables: { name: string; kind: TableKind; valueUnit: ValueUnit; pointCount: number; sample: { x: string; y: string }[] }[]
+  /** rows under the header with every mapped cell, for showing and fixing flagged cells */
+  rows: { row: number; cells: (string | null)[] }[]
+  columns: number[]
+}
+
+export interface ImportCommitDto { tables: { id: string; name: string; versionId: string; number: number }[] }

@@ -1,0 +1,22 @@
+import { PUBLIC, ROLE_ONLY, type Caller, type Expect, type RouteExpectation } from './types'
+
+// Members, invitations and password reset. Ids that name nothing answer 404 even for the admin.
+const NOBODY = '00000000-0000-4000-8000-000000000000'
+const BOGUS_TOKEN = 'AAAAAAAAAAAAAAAAAAAAAA'
+const ADMIN = ROLE_ONLY(['admin'])
+const ADMIN_MISSING = { ...ADMIN, admin: 404 }
+const ALL = (status: Expect) => Object.fromEntries(['anonymous', 'admin', 'actuary', 'analyst', 'auditor', 'otherOrg'].map(c => [c, status])) as Record<Caller, Expect>
+
+export const membersRoutes: Record<string, RouteExpectation> = {
+  'GET /api/orgs/[org]/seats': { expect: ADMIN },
+  'PATCH /api/orgs/[org]/members/[user]': { path: ({ org }) => `/api/orgs/${org}/members/${NOBODY}`, expect: ADMIN },
+  'DELETE /api/orgs/[org]/members/[user]': { path: ({ org }) => `/api/orgs/${org}/members/${NOBODY}`, expect: ADMIN_MISSING },
+  'GET /api/orgs/[org]/invitations': { expect: ADMIN },
+  'POST /api/orgs/[org]/invitations': { expect: ADMIN },
+  'DELETE /api/orgs/[org]/invitations/[invitation]': { path: ({ org }) => `/api/orgs/${org}/invitations/${NOBODY}`, expect: ADMIN_MISSING },
+  'POST /api/orgs/[org]/invitations/[invitation]/resend': { path: ({ org }) => `/api/orgs/${org}/invitations/${NOBODY}/resend`, expect: ADMIN_MISSING },
+  'GET /api/invitations/[token]': { path: () => `/api/invitations/${BOGUS_TOKEN}`, expect: ALL(404) },
+  'POST /api/invitations/[token]/accept': { path: () => `/api/invitations/${BOGUS_TOKEN}/accept`, expect: ALL(404) },
+  'POST /api/auth/password-reset': { expect: { ...PUBLIC } },
+  'POST /api/auth/password-reset/confirm': { expect: { ...PUBLIC } },
+}

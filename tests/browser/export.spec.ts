@@ -1,0 +1,55 @@
+import { mkdtempSync } from 'node:fs'
+import { readFile, writeFile } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
+import path from 'node:path'
+import ExcelJS from 'exceljs'
+import { expect, test } from '@playwright/test'
+import { PEOPLE, shot, signIn } from './helpers'
+
+const dir = mkdtempSync(path.join(tmpdir(), 'kw-export-'))
+
+test('the auditor downloads the signed curve, finds it genuine, and sees which cell an altered copy changed', async ({ page }) => {
+  await signIn(page, PEOPLE.auditor)
+  await page.getByRole('link', { name: 'Discount curve 2026-09-30' }).click()
+  const panel = page.getByTestId('review-panel')
+  await expect(panel).toContainText('Felix Amari')
+  await expect(page.getByTestId('review-approve')).toHaveCount(0)
+  await shot(page, 'export-table-review-panel')
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-download').click()])
+  const original = path.join(dir, download.suggestedFilename())
+  await download.saveAs(original)
+
+  await page.getByTestId('nav-verify').click()
+  await page.getByTestId('verify-file').setInputFiles(original)
+  await page.getByTestId('verify-submit').click()
+  await expect(page.getByTestId('verify-verdict')).toHaveAttribute('data-verdict', 'genuine-current')
+  await expect(page.getByTestId('verify-verdict')).toContainText('Genuine and in force')
+  await shot(page, 'export-verify-genuine')
+
+  const wb = new ExcelJS.Workbook()
+  await wb.xlsx.load(await readFile(original) as unknown as ArrayBuffer)
+  const cell = wb.getWorksheet('Filled values')!.getCell('D17')
+  cell.value = `${String(cell.value)}9`
+  const altered = path.join(dir, 'altered.xlsx')
+  await writeFile(altered, Buffer.from(await wb.xlsx.writeBuffer()))
+  await page.getByTestId('verify-file').setInputFiles(altered)
+  await page.getByTestId('verify-submit').click()
+  await expect(page.getByTestId('verify-verdict')).toHaveAttribute('data-verdict', 'altered')
+  await expect(page.getByTestId('verify-differences')).toContainText('Filled values!D17')
+  await shot(page, 'export-verify-altered')
+})
+
+test('the audit trail shows the chain as intact and lists the export', async ({ page }) => {
+  await signIn(page, PEOPLE.auditor)
+  await page.getByTestId('nav-audit').click()
+  await expect(page.getByTestId('chain-org')).toContainText('Intact')
+  await expect(page.getByTestId('audit-events')).toContainText('export.download')
+  await shot(page, 'audit-trail')
+})
+
+test('an actuary sees the second-check queue', async ({ page }) => {
+  await signIn(page, PEOPLE.both)
+  await page.getByTestId('nav-reviews').click()
+  await expect(page.getByRole('heading', { name: 'Second check' })).toBeVisible()
+  await shot(page, 'review-queue')
+})
