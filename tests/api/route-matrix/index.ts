@@ -1,5 +1,6 @@
 import { foundationRoutes } from './foundation'
 import { tablesRoutes } from './tables'
+import { fillsRoutes } from './fills'
 import { membersRoutes } from './members'
 import { billingRoutes } from './billing'
 import { reviewRoutes } from './review'
@@ -12,4 +13,5 @@ export const ROUTES: Record<string, RouteExpectation> = {
   ...billingRoutes,
   ...tablesRoutes,
   ...reviewRoutes,
+  ...fillsRoutes,
 }

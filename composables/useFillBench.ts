@@ -1,0 +1,111 @@
+import { DEFAULT_BENCH_METHODS, type FillExtrapolation, type FillMethodId, type FillTransformId } from '~~/shared/fills'
+import type { CompareInput, MethodChoice } from '~~/shared/schemas/fills'
+import type { CompareResponseDto, MethodListing } from '~~/shared/types/fills'
+import type { Axis, TableKind } from '~~/shared/tables'
+
+/** One method on the bench, with its option values as the form holds them. */
+export interface BenchMethod { key: number, method: FillMethodId, options: Record<string, string> }
+
+export interface BenchSettings {
+  grid: { from: string, to: string, step: string }
+  transform: FillTransformId
+  extrapolation: FillExtrapolation
+  ages: string
+  interest: string
+}
+
+let nextKey = 1
+export function newBenchMethod(listing: MethodListing): BenchMethod {
+  return { key: nextKey++, method: listing.id, options: Object.fromEntries(listing.options.map(o => [o.name, o.default])) }
+}
+
+/** A readable name for a method with its non-default options ("Quadratic spline · right-zero-curvature"). */
+export function benchLabel(m: BenchMethod, listing: MethodListing | undefined): string {
+  const changed = (listing?.options ?? []).filter(o => m.options[o.name] !== undefined && m.options[o.name] !== o.default
+    && (!o.appliesWhen || Object.entries(o.appliesWhen).every(([k, v]) => v.includes(m.options[k] ?? ''))))
+  const base = listing?.label ?? m.method
+  return changed.length ? `${base} · ${changed.map(o => (o.type === 'enum' ? m.options[o.name] : `${o.name} ${m.options[o.name]}`)).join(', ')}` : base
+}
+
+/** Defaults from the table: every whole age or policy year between the first and last point; monthly terms for a curve. */
+export function defaultSettings(kind: TableKind, axis: Axis, knots: { x: string }[]): BenchSettings {
+  const first = knots[0]?.x ?? '0'
+  const last = knots.at(-1)?.x ?? '1'
+  const step = axis === 'term' ? '1/12' : '1'
+  const from = axis === 'term' ? first : String(Math.ceil(Number(first)))
+  const to = axis === 'term' ? last : String(Math.floor(Number(last)))
+  return { grid: { from, to, step }, transform: 'none', extrapolation: 'error', ages: kind === 'mortality' ? '65' : '', interest: '0.03' }
+}
+
+export function defaultMethods(listings: MethodListing[]): BenchMethod[] {
+  return DEFAULT_BENCH_METHODS.map(id => listings.find(l => l.id === id)).filter((l): l is MethodListing => !!l).map(newBenchMethod)
+}
+
+/** The compare body for the current settings (options that do not apply are left to the engine to drop). */
+export function compareBody(settings: BenchSettings, methods: BenchMethod[], listings: MethodListing[], kind: TableKind, baseline: string | null): CompareInput {
+  const ages = settings.ages.split(/[\s,;]+/).filter(Boolean).map(Number).filter(n => Number.isInteger(n))
+  const choices: MethodChoice[] = methods.map(m => toChoice(m, listings))
+  return {
+    grid: { ...settings.grid },
+    transform: settings.transform,
+    extrapolation: settings.extrapolation,
+    methods: choices,
+    ...(baseline && choices.some(c => c.label === baseline) ? { baseline } : {}),
+    ...(kind === 'mortality' ? { money: { ...(ages.length ? { ages } : {}), interest: settings.interest } } : {}),
+  }
+}
+
+export function toChoice(m: BenchMethod, listings: MethodListing[]): MethodChoice {
+  const listing = listings.find(l => l.id === m.method)
+  const options = Object.fromEntries(Object.entries(m.options).filter(([name]) => {
+    const o = listing?.options.find(x => x.name === name)
+    return o && (!o.appliesWhen || Object.entries(o.appliesWhen).every(([k, v]) => v.includes(m.options[k] ?? '')))
+  }))
+  return { method: m.method, options, label: benchLabel(m, listing) }
+}
+
+/** Runs a comparison with a cancel switch and a running clock. */
+export function useCompareRun(url: () => string) {
+  const running = ref(false)
+  const elapsedMs = ref(0)
+  const error = ref<string | null>(null)
+  const response = shallowRef<CompareResponseDto | null>(null)
+  /** How many runs have been started, and which one the response on screen answers (set together with it). */
+  const started = ref(0)
+  const answered = ref(0)
+  let controller: AbortController | null = null
+  let timer: ReturnType<typeof setInterval> | undefined
+
+  async function run(body: CompareInput) {
+    controller?.abort()
+    controller = new AbortController()
+    const id = ++started.value
+    const begun = performance.now()
+    running.value = true
+    error.value = null
+    elapsedMs.value = 0
+    clearInterval(timer)
+    timer = setInterval(() => { elapsedMs.value = performance.now() - begun }, 100)
+    try {
+      const answer = await $fetch<CompareResponseDto>(url(), { method: 'POST', body, signal: controller.signal })
+      if (id === started.value) {
+        answered.value = id
+        response.value = answer
+      }
+    }
+    catch (e) {
+      const failure = e as { name?: string, data?: { statusMessage?: string }, statusMessage?: string }
+      error.value = failure.name === 'AbortError' || controller?.signal.aborted
+        ? 'Comparison cancelled; the previous results (if any) stay on screen.'
+        : failure.data?.statusMessage ?? failure.statusMessage ?? 'The comparison failed.'
+    }
+    finally {
+      clearInterval(timer)
+      elapsedMs.value = performance.now() - begun
+      running.value = false
+    }
+  }
+  function cancel() { controller?.abort() }
+  onBeforeUnmount(() => { controller?.abort(); clearInterval(timer) })
+  return { running, elapsedMs, error, response, started, answered, run, cancel }
+}

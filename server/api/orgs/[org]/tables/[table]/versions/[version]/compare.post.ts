@@ -1,0 +1,13 @@
+import { z } from 'zod'
+import { compareSchema } from '../../../../../../../../shared/schemas/fills'
+import { runCompare } from '../../../../../../../services/fills'
+
+const paramsSchema = z.object({ table: z.string().max(64), version: z.coerce.number().int().min(1).max(1_000_000) })
+
+// Fills the version's stored points with every chosen method and sets the results side by side (read-only; any version).
+export default defineEventHandler(async (event) => {
+  const access = await requirePermission(event, 'fills:run')
+  const { table, version } = readValidParams(event, paramsSchema)
+  const input = await readValidBody(event, compareSchema)
+  return runCompare(access, table, version, input)
+})

@@ -1,0 +1,46 @@
+// Choices of the fill bench that both the form and the server know. The engine (server/engine) is the authority:
+// server/services/fill-request.ts checks at compile time that these lists match its types.
+export const FILL_METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima'] as const
+export type FillMethodId = (typeof FILL_METHOD_IDS)[number]
+export const FILL_TRANSFORM_IDS = ['none', 'log', 'logit', 'cumulative-hazard', 'log-discount'] as const
+export type FillTransformId = (typeof FILL_TRANSFORM_IDS)[number]
+export const EXTRAPOLATION_RULES = ['error', 'flat', 'linear'] as const
+export type FillExtrapolation = (typeof EXTRAPOLATION_RULES)[number]
+
+/** Our own words for the extrapolation rules. */
+export const EXTRAPOLATION_LABELS: Record<FillExtrapolation, string> = {
+  error: 'Refuse points outside the given range',
+  flat: 'Hold the end value flat',
+  linear: 'Extend the end piece as a straight line',
+}
+
+/** Preselected on the bench: the three methods whose contrast matters most. */
+export const DEFAULT_BENCH_METHODS: FillMethodId[] = ['linear', 'quadratic', 'cubic-natural']
+export const MAX_BENCH_METHODS = 8
+export const MIN_RATIONALE = 20
+/** Most output points a bench grid may have (the engine allows more; the browser has to draw them). */
+export const MAX_BENCH_POINTS = 50_000
+
+/** A grid step: a decimal (0.5) or a fraction (1/12, for monthly terms in years). */
+export function parseStep(step: string): { num: bigint, den: bigint } | null {
+  const fraction = /^(\d+)\/(\d+)$/.exec(step.trim())
+  if (fraction) {
+    const num = BigInt(fraction[1]!)
+    const den = BigInt(fraction[2]!)
+    return num > 0n && den > 0n ? { num, den } : null
+  }
+  const dec = /^(\d+)(?:\.(\d+))?$/.exec(step.trim())
+  if (!dec) return null
+  const frac = dec[2] ?? ''
+  const num = BigInt(dec[1]! + frac)
+  return num > 0n ? { num, den: 10n ** BigInt(frac.length) } : null
+}
+
+/** How many points from..to (inclusive when reached) at this step; null when the text is not a valid grid. */
+export function gridPointCount(from: string, to: string, step: string): number | null {
+  const s = parseStep(step)
+  const a = Number(from)
+  const b = Number(to)
+  if (!s || !Number.isFinite(a) || !Number.isFinite(b) || b < a) return null
+  return Math.floor(((b - a) * Number(s.den)) / Number(s.num) + 1e-9) + 1
+}

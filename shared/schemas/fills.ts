@@ -1,0 +1,56 @@
+import { z } from 'zod'
+import { EXTRAPOLATION_RULES, FILL_METHOD_IDS, FILL_TRANSFORM_IDS, MAX_BENCH_METHODS, MAX_BENCH_POINTS, MIN_RATIONALE, gridPointCount, parseStep } from '../fills'
+
+// Shared by the fill bench form and the compare / fill handlers.
+const plainDecimal = z.string().trim().regex(/^-?\d+(\.\d+)?$/, { message: 'Enter a plain decimal like 20 or 0.25' })
+
+export const benchGridSchema = z.object({
+  from: plainDecimal,
+  to: plainDecimal,
+  step: z.string().trim().refine(v => parseStep(v) !== null, { message: 'Enter a step like 1, 0.5 or 1/12' }),
+}).superRefine((g, ctx) => {
+  const n = gridPointCount(g.from, g.to, g.step)
+  if (n === null) ctx.addIssue({ code: 'custom', path: ['to'], message: 'The grid must end at or after where it starts' })
+  else if (n > MAX_BENCH_POINTS) ctx.addIssue({ code: 'custom', path: ['step'], message: `That grid has ${n} points; at most ${MAX_BENCH_POINTS} fit on the bench` })
+})
+
+export const methodChoiceSchema = z.object({
+  method: z.enum(FILL_METHOD_IDS),
+  options: z.record(z.string().max(40), z.string().trim().max(60)).optional(),
+  transform: z.enum(FILL_TRANSFORM_IDS).optional(),
+  label: z.string().trim().min(1).max(80).optional(),
+})
+
+export const moneyChoiceSchema = z.object({
+  ages: z.array(z.number().int().min(0).max(150)).min(1).max(20).optional(),
+  interest: plainDecimal.optional(),
+  annuityTerms: z.array(z.number().int().min(1).max(200)).min(1).max(20).optional(),
+  keyTerms: z.array(plainDecimal).min(1).max(20).optional(),
+})
+
+const settings = {
+  grid: benchGridSchema,
+  transform: z.enum(FILL_TRANSFORM_IDS).default('none'),
+  extrapolation: z.enum(EXTRAPOLATION_RULES).default('error'),
+  precision: z.number().int().min(6).max(60).optional(),
+  money: moneyChoiceSchema.optional(),
+}
+
+export const compareSchema = z.object({
+  ...settings,
+  methods: z.array(methodChoiceSchema).min(1, { message: 'Choose at least one method' }).max(MAX_BENCH_METHODS, { message: `Compare at most ${MAX_BENCH_METHODS} methods at once` }),
+  /** Label of the method the others are measured against (default: the first). */
+  baseline: z.string().max(160).optional(),
+})
+
+export const saveFillSchema = z.object({
+  ...settings,
+  choice: methodChoiceSchema,
+  rationale: z.string().trim().min(MIN_RATIONALE, { message: `Say why in at least ${MIN_RATIONALE} characters` }).max(4000),
+  lockVersion: z.number().int().min(0),
+})
+
+export type BenchGrid = z.infer<typeof benchGridSchema>
+export type MethodChoice = z.infer<typeof methodChoiceSchema>
+export type CompareInput = z.infer<typeof compareSchema>
+export type SaveFillInput = z.infer<typeof saveFillSchema>

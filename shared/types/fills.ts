@@ -1,0 +1,48 @@
+// What the fill bench routes answer. The engine's result types are re-exported (types only, no engine code).
+import type { CompareResult, Diagnostics, MoneyImpact, ResolvedSpec } from '../../server/engine/types'
+import type { MethodListing } from '../../server/engine/registry'
+import type { TransformListing } from '../../server/engine/transform-listing'
+import type { TableKind, Axis, VersionStatus } from '../tables'
+import type { BenchGrid } from '../schemas/fills'
+
+export type { CompareEntry, CompareResult, Diagnostics, FillResult, MoneyDifference, MoneyFigure, MoneyImpact, ResolvedSpec, Span } from '../../server/engine/types'
+export type { MethodListing, TransformListing }
+
+export interface FillMethodsDto {
+  methods: MethodListing[]
+  transforms: TransformListing[]
+  engineVersion: string
+  caution: string
+}
+
+export interface CompareResponseDto {
+  result: CompareResult
+  /** Server time spent in the engine, milliseconds. */
+  engineMs: number
+  knots: { x: string, y: string }[]
+  kind: TableKind
+  axis: Axis
+  status: VersionStatus
+  lockVersion: number
+  pointCount: number
+}
+
+/** fill_spec as stored: the engine's resolved spec plus what the bench needs to show and check it. */
+export interface StoredFillSpec extends ResolvedSpec {
+  bench: { grid: BenchGrid, label: string, pointsHash: string }
+}
+
+export interface SavedFillDto {
+  versionId: string
+  spec: StoredFillSpec
+  rationale: string
+  diagnostics: Diagnostics
+  money: MoneyImpact
+  filledBy: { id: string, name: string } | null
+  filledAt: string
+  pointCount: number
+  /** The version's points changed after the fill was saved: the fill no longer matches them. */
+  stale: boolean
+  lockVersion: number
+  points?: { x: string, y: string }[]
+}

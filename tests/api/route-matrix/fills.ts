@@ -1,0 +1,12 @@
+import { EVERY_MEMBER, ROLE_ONLY, type MatrixContext, type RouteExpectation } from './types'
+
+const RUNNERS = ROLE_ONLY(['actuary', 'analyst'])
+// The demo draft of Larkspur's male pensioner mortality (ids.ts: benchTable, benchNumber).
+const draft = (ctx: MatrixContext) => `/api/orgs/${ctx.org}/tables/${ctx.ids.benchTable}/versions/${ctx.ids.benchNumber}`
+
+export const fillsRoutes: Record<string, RouteExpectation> = {
+  'GET /api/orgs/[org]/fill-methods': { expect: EVERY_MEMBER },
+  'POST /api/orgs/[org]/tables/[table]/versions/[version]/compare': { path: ctx => `${draft(ctx)}/compare`, body: {}, expect: RUNNERS },
+  'POST /api/orgs/[org]/tables/[table]/versions/[version]/fill': { path: ctx => `${draft(ctx)}/fill`, body: {}, expect: RUNNERS },
+  'GET /api/orgs/[org]/tables/[table]/versions/[version]/fill': { path: ctx => `${draft(ctx)}/fill`, expect: EVERY_MEMBER },
+}
