@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, DEMO, LARKSPUR, closeOwnerDb, ownerDb, signedIn } from './helpers'
 import { filledDraft, newTable, statusOf } from './review-helpers'
+import { waitForMail } from './fakes'
 import type { ReviewStateDto } from '../../shared/types/review'
 
 const base = (tableId: string, n: number) => `/api/orgs/${LARKSPUR}/tables/${tableId}/versions/${n}`
@@ -107,12 +108,7 @@ describe('maker-checker review', () => {
     const tableId = await newTable(LARKSPUR, DEMO.analyst)
     const v = await filledDraft(tableId, DEMO.analyst)
     await analyst.post(`${base(tableId, v.number)}/submit`, {})
-    let found = false
-    for (let i = 0; i < 20 && !found; i++) {
-      const list = await (await fetch(`${inbox}/messages?to=${encodeURIComponent(DEMO.both)}`)).json() as { subject: string }[]
-      found = list.some(m => m.subject.startsWith('Second check requested'))
-      if (!found) await new Promise(r => setTimeout(r, 250))
-    }
-    expect(found).toBe(true)
+    const mail = await waitForMail(DEMO.both, 'Second check requested')
+    expect(mail.subject).toContain('Second check requested')
   })
 })
