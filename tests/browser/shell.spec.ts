@@ -22,12 +22,12 @@ test('a wrong password gets a plain message and no session', async ({ page }) =>
   await expect(page).toHaveURL(/\/signin/)
 })
 
-const NAV: Record<keyof typeof PEOPLE, { shows: string[]; hides: string[] }> = {
-  admin: { shows: ['nav-tables', 'nav-members'], hides: [] },
-  actuary: { shows: ['nav-tables'], hides: ['nav-members'] },
-  analyst: { shows: ['nav-tables'], hides: ['nav-members'] },
-  auditor: { shows: ['nav-tables'], hides: ['nav-members'] },
-  both: { shows: ['nav-tables'], hides: ['nav-members'] },
+// Navigation by role, from the permission table of DOMAIN.md section 5
+const NAV: Record<'admin' | 'actuary' | 'analyst' | 'auditor', { shows: string[]; hides: string[] }> = {
+  admin: { shows: ['nav-tables', 'nav-audit', 'nav-verify', 'nav-members', 'nav-billing'], hides: ['nav-reviews', 'nav-import'] },
+  actuary: { shows: ['nav-tables', 'nav-reviews', 'nav-audit', 'nav-verify', 'nav-import'], hides: ['nav-members', 'nav-billing'] },
+  analyst: { shows: ['nav-tables', 'nav-audit', 'nav-import'], hides: ['nav-reviews', 'nav-verify', 'nav-members', 'nav-billing'] },
+  auditor: { shows: ['nav-tables', 'nav-audit', 'nav-verify'], hides: ['nav-reviews', 'nav-import', 'nav-members', 'nav-billing'] },
 }
 
 for (const role of ['admin', 'actuary', 'analyst', 'auditor'] as const) {
