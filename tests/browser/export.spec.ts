@@ -43,7 +43,7 @@ test('the audit trail shows the chain as intact and lists the export', async ({ 
   await signIn(page, PEOPLE.auditor)
   await page.getByTestId('nav-audit').click()
   await expect(page.getByTestId('chain-org')).toContainText('Intact')
-  await expect(page.getByTestId('audit-events')).toContainText('export.download')
+  await expect(page.getByTestId('audit-events')).toContainText('Downloaded a signed export')
   await shot(page, 'audit-trail')
 })
 

@@ -1,0 +1,41 @@
+// Plain words for audit actions (the stored action id stays as recorded in the chain).
+const LABELS: Record<string, string> = {
+  'auth.sign-in': 'Signed in',
+  'auth.sign-out': 'Signed out',
+  'auth.password-change': 'Changed password',
+  'auth.password-reset': 'Reset password',
+  'auth.password-reset-request': 'Asked for a password reset',
+  'billing.start': 'Billing account opened',
+  'billing.seats-change': 'Changed seats',
+  'billing.sync': 'Billing updated from the payment provider',
+  'export.download': 'Downloaded a signed export',
+  'export.verify': 'Checked a signed file',
+  'import.upload': 'Uploaded a spreadsheet',
+  'import.commit': 'Created drafts from a spreadsheet',
+  'import.discard': 'Discarded an upload',
+  'invitation.create': 'Invited someone',
+  'invitation.accept': 'Accepted an invitation',
+  'invitation.cancel': 'Cancelled an invitation',
+  'invitation.resend': 'Resent an invitation',
+  'member.add': 'Member added',
+  'member.remove': 'Member removed',
+  'member.role-change': 'Role changed',
+  'org.create': 'Organisation created',
+  'signing-key.create': 'Signing key created',
+  'signing-key.rotate': 'Signing key replaced',
+  'table.create': 'Table created',
+  'table.update': 'Table details changed',
+  'version.create': 'Version created',
+  'version.points.save': 'Draft points saved',
+  'version.fill.save': 'Fill chosen',
+  'version.submit': 'Submitted for second check',
+  'version.approve': 'Signed off',
+  'version.send-back': 'Sent back',
+  'version.retire': 'Withdrawn',
+  'version.supersede': 'Superseded by a newer sign-off',
+  'version.comment': 'Commented',
+}
+
+export function auditActionLabel(action: string): string {
+  return LABELS[action] ?? action
+}
