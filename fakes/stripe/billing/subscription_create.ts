@@ -3,10 +3,9 @@ import { invalid } from '../errors.ts'
 import { newId } from '../ids.ts'
 import { allowOnly, applyMetadata, listParam, optBool, optEnum, optInt, optNullableString, optString, reqString } from '../params.ts'
 import type { Obj } from '../store.ts'
-import { addCycleLine, finalizeInvoice, newInvoice } from './invoices.ts'
-import { attemptPayment } from './payment.ts'
+import { addCycleLine, newInvoice } from './invoices.ts'
 import { addIntervals } from './periods.ts'
-import { attachedPaymentMethod, newSubscriptionItem, productName, recurringPrice, sameBillingTerms } from './subscription_parts.ts'
+import { attachedPaymentMethod, issueSubscriptionInvoice, newSubscriptionItem, productName, recurringPrice, sameBillingTerms } from './subscription_parts.ts'
 
 export const PAYMENT_BEHAVIOURS = ['allow_incomplete', 'default_incomplete', 'error_if_incomplete'] as const
 
@@ -70,13 +69,7 @@ export function createSubscription(ctx: Ctx): Obj {
   ctx.quiet.add(id)
   const inv = newInvoice(ctx, customer, { subscription: sub, billingReason: 'subscription_create', currency: sub.currency, periodStart: now, periodEnd: now })
   for (const item of sub.items.data) addCycleLine(inv, sub, item, productName(ctx, item.price), now, end, trialing)
-  sub.latest_invoice = inv.id
-  emit(ctx, 'invoice.created', inv)
-  finalizeInvoice(ctx, inv)
-  if (inv.status === 'open' && (inv.amount_due === 0 || behaviour !== 'default_incomplete')) {
-    const err = attemptPayment(ctx, inv)
-    if (err && behaviour === 'error_if_incomplete') throw err
-  }
+  issueSubscriptionInvoice(ctx, sub, inv, behaviour)
   ctx.quiet.delete(id)
   emit(ctx, 'customer.subscription.created', sub, undefined, mark)
   return sub

@@ -1,7 +1,9 @@
-import type { Ctx } from '../context.ts'
+import { emit, type Ctx } from '../context.ts'
 import { invalid } from '../errors.ts'
 import { newId } from '../ids.ts'
 import { clone, type Obj } from '../store.ts'
+import { finalizeInvoice } from './invoices.ts'
+import { attemptPayment } from './payment.ts'
 
 /** A recurring, active price named in a parameter. */
 export function recurringPrice(ctx: Ctx, id: string, param: string): Obj {
@@ -46,5 +48,16 @@ export function sameBillingTerms(a: Obj, b: Obj, param: string): void {
   if (a.currency !== b.currency) throw invalid('All prices on a subscription must have the same currency.', param)
   if (a.recurring.interval !== b.recurring.interval || a.recurring.interval_count !== b.recurring.interval_count) {
     throw invalid('The local Stripe fake requires all prices on a subscription to share one billing interval (no interval changes).', param)
+  }
+}
+
+/** Announces, finalises and (unless payment_behavior defers it) charges a subscription's new invoice. */
+export function issueSubscriptionInvoice(ctx: Ctx, sub: Obj, inv: Obj, behaviour: string): void {
+  sub.latest_invoice = inv.id
+  emit(ctx, 'invoice.created', inv)
+  finalizeInvoice(ctx, inv)
+  if (inv.status === 'open' && (inv.amount_due === 0 || behaviour !== 'default_incomplete')) {
+    const err = attemptPayment(ctx, inv)
+    if (err && behaviour === 'error_if_incomplete') throw err
   }
 }

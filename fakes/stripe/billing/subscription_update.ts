@@ -3,12 +3,11 @@ import { invalid, missing } from '../errors.ts'
 import { allowOnly, applyMetadata, listParam, optBool, optEnum, optInt, optNullableString, optString } from '../params.ts'
 import { clone, type Obj } from '../store.ts'
 import { newInvoiceItem, pullPendingItems } from './invoice_items.ts'
-import { finalizeInvoice, newInvoice } from './invoices.ts'
+import { newInvoice } from './invoices.ts'
 import { formatDate } from './money.ts'
-import { attemptPayment } from './payment.ts'
 import { prorate } from './proration.ts'
 import { PAYMENT_BEHAVIOURS } from './subscription_create.ts'
-import { attachedPaymentMethod, newSubscriptionItem, planOf, productName, recurringPrice, sameBillingTerms } from './subscription_parts.ts'
+import { attachedPaymentMethod, issueSubscriptionInvoice, newSubscriptionItem, planOf, productName, recurringPrice, sameBillingTerms } from './subscription_parts.ts'
 
 export const PRORATION_BEHAVIOURS = ['create_prorations', 'always_invoice', 'none'] as const
 interface Change { item: Obj; old: { price: Obj; quantity: number } | null; next: { price: Obj; quantity: number } | null }
@@ -103,13 +102,7 @@ export function updateSubscription(ctx: Ctx): Obj {
     const inv = newInvoice(ctx, customer, { subscription: sub, billingReason: 'subscription_update', currency: sub.currency, periodStart: at, periodEnd: at })
     inv.parent.subscription_details.subscription_proration_date = at
     pullPendingItems(ctx, inv, sub.id)
-    sub.latest_invoice = inv.id
-    emit(ctx, 'invoice.created', inv)
-    finalizeInvoice(ctx, inv)
-    if (inv.status === 'open' && (inv.amount_due === 0 || behaviour !== 'default_incomplete')) {
-      const err = attemptPayment(ctx, inv)
-      if (err && behaviour === 'error_if_incomplete') throw err
-    }
+    issueSubscriptionInvoice(ctx, sub, inv, behaviour)
     ctx.quiet.delete(sub.id)
   }
   const prev = previousAttributes(before, sub)
