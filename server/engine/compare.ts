@@ -43,25 +43,47 @@ export function compare(request: FillRequest, methods: MethodSpec[], options: { 
   const done = entries.filter((e): e is CompareEntry & { ok: true } => e.ok)
   const D = decimalContext((done[0]?.result.spec.workingPrecision) ?? 50)
   const pairs: PairDifference[] = []
+  const rough = done.map(e => Float64Array.from(e.result.points, p => Number(p.y)))
   for (let i = 0; i < done.length; i += 1) {
-    for (let j = i + 1; j < done.length; j += 1) pairs.push(pairDifference(D, done[i]!.label, done[i]!.result, done[j]!.label, done[j]!.result))
+    for (let j = i + 1; j < done.length; j += 1) {
+      pairs.push(pairDifference(D, { label: done[i]!.label, result: done[i]!.result, rough: rough[i]! }, { label: done[j]!.label, result: done[j]!.result, rough: rough[j]! }))
+    }
   }
   const money = baseline.ok ? done.filter(e => e !== baseline).flatMap(e => moneyDifferences(D, baseline.result, e.label, e.result)) : []
   return { baseline: baseline.label, entries, pairs, money }
 }
 
-/** max_k |y_a(x_k) - y_b(x_k)| over the common output points. */
-function pairDifference(D: ReturnType<typeof decimalContext>, la: string, a: FillResult, lb: string, b: FillResult): PairDifference {
+interface Side { label: string, result: FillResult, rough: Float64Array }
+
+// Bound on the error of |fl(a) - fl(b)| relative to |a| + |b| (IEEE 754 double: 2^-53 per conversion and subtraction).
+const FLOAT_SLACK = 4 * 2 ** -53
+
+/**
+ * max_k |y_a(x_k) - y_b(x_k)| over the common output points, exactly. Binary floating point only shortlists:
+ * every point whose float difference could, within its rounding bound, reach the largest one is compared in decimal.
+ */
+function pairDifference(D: ReturnType<typeof decimalContext>, a: Side, b: Side): PairDifference {
+  const n = a.result.points.length
+  const gap = (k: number) => Math.abs(a.rough[k]! - b.rough[k]!)
+  const slack = (k: number) => FLOAT_SLACK * (Math.abs(a.rough[k]!) + Math.abs(b.rough[k]!)) + Number.MIN_VALUE * 2 ** 60
+  // a lower bound on the true largest difference
+  let floor = 0
+  for (let k = 0; k < n; k += 1) {
+    const low = gap(k) - slack(k)
+    if (Number.isFinite(low) && low > floor) floor = low
+  }
   let worst: Dec = new D(0)
   let at: string | null = null
-  a.points.forEach((p, k) => {
-    const d = new D(p.y).minus(new D(b.points[k]!.y)).abs()
+  for (let k = 0; k < n; k += 1) {
+    const high = gap(k) + slack(k)
+    if (Number.isFinite(high) && high < floor) continue // cannot be the largest
+    const d = new D(a.result.points[k]!.y).minus(new D(b.result.points[k]!.y)).abs()
     if (d.gt(worst)) {
       worst = d
-      at = p.x
+      at = a.result.points[k]!.x
     }
-  })
-  return { a: la, b: lb, maxAbsDifference: roundTo(worst, a.spec.precision).toString(), at }
+  }
+  return { a: a.label, b: b.label, maxAbsDifference: roundTo(worst, a.result.spec.precision).toString(), at }
 }
 
 /** value - baseline, and 100 (value - baseline) / baseline when the baseline is not zero. */

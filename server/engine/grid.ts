@@ -25,7 +25,36 @@ function parseField(D: DecimalCtor, raw: unknown, name: string): Dec {
  * The output abscissae: a regular grid from, from + step, ... up to and including `to` when it is reached,
  * built by repeated exact decimal addition of the step; or an explicit list `at` (any order, repeats allowed).
  */
+// compare() fills the same points with several methods: keep the last resolution (Decimals are immutable).
+let lastKey = ''
+let lastCtor: DecimalCtor | null = null
+let lastPoints: ResolvedPoints | null = null
+
 export function resolvePoints(D: DecimalCtor, grid: unknown, at: unknown): ResolvedPoints {
+  const key = memoKey(grid, at)
+  if (key !== null && lastCtor === D && lastKey === key && lastPoints) return lastPoints
+  const points = resolveFresh(D, grid, at)
+  if (key !== null) {
+    lastKey = key
+    lastCtor = D
+    lastPoints = points
+  }
+  return points
+}
+
+const NUMBER_TEXT = /^[-+]?[0-9.eE+-]+$/
+
+function memoKey(grid: unknown, at: unknown): string | null {
+  if (grid && typeof grid === 'object' && (at === undefined || at === null)) {
+    const g = grid as Record<string, unknown>
+    return typeof g.from === 'string' && typeof g.to === 'string' && typeof g.step === 'string' ? `g|${g.from}|${g.to}|${g.step}` : null
+  }
+  // only plain number text takes part, so two different lists can never share a key
+  if ((grid === undefined || grid === null) && Array.isArray(at) && at.every(v => typeof v === 'string' && NUMBER_TEXT.test(v))) return `a|${at.join(',')}`
+  return null
+}
+
+function resolveFresh(D: DecimalCtor, grid: unknown, at: unknown): ResolvedPoints {
   if ((grid === undefined || grid === null) === (at === undefined || at === null)) {
     throw new EngineError('invalid-grid', 'Give either a grid {from, to, step} or a list of points (at), not both and not neither.')
   }
