@@ -61,10 +61,14 @@ async function clickToChart(base: string) {
   }
   const times: number[] = []
   for (let r = 0; r < 7; r += 1) {
+    const before = await page.evaluate(() => Number(document.querySelector<HTMLElement>('[data-drawn-run]')?.dataset.run ?? 0))
     const started = performance.now()
     await page.getByTestId('bench-compare').click()
-    await page.waitForFunction(() => document.querySelector<HTMLElement>('[data-drawn-run]')?.dataset.drawnRun !== document.querySelector<HTMLElement>('[data-drawn-run]')?.dataset.run, undefined, { polling: 'raf' }).catch(() => {})
-    await settled()
+    // the next run, drawn (waiting for "not yet drawn" first could miss a run that finishes within one frame)
+    await page.waitForFunction((prev) => {
+      const root = document.querySelector<HTMLElement>('[data-drawn-run]')
+      return !!root && Number(root.dataset.run) > prev && root.dataset.drawnRun === root.dataset.run
+    }, before, { polling: 'raf', timeout: 60_000 })
     if (r >= 1) times.push(performance.now() - started)
   }
   const methods = await page.locator('[data-testid=bench-methods] li').count()
