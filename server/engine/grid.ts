@@ -44,6 +44,13 @@ export function resolvePoints(D: DecimalCtor, grid: unknown, at: unknown): Resol
 
 const NUMBER_TEXT = /^[-+]?[0-9.eE+-]+$/
 
+/** Drops the kept resolution (benchmarks time a cold grid with it). */
+export function forgetResolvedPoints(): void {
+  lastKey = ''
+  lastCtor = null
+  lastPoints = null
+}
+
 function memoKey(grid: unknown, at: unknown): string | null {
   if (grid && typeof grid === 'object' && (at === undefined || at === null)) {
     const g = grid as Record<string, unknown>
