@@ -6,10 +6,9 @@ import { cubicNatural } from './methods/cubic-natural'
 import { cubicNotAKnot } from './methods/cubic-not-a-knot'
 import { linear } from './methods/linear'
 import { logLinear } from './methods/log-linear'
-import type { MethodDefinition, OptionDescriptor } from './methods/method'
+import type { MethodDefinition } from './methods/method'
 import { pchip } from './methods/pchip'
 import { quadratic } from './methods/quadratic'
-import type { MethodId } from './types'
 
 /** Every method, in the order the product lists them. Adding a method: one file in methods/ and one line here. */
 const DEFINITIONS: MethodDefinition[] = [
@@ -26,14 +25,7 @@ const DEFINITIONS: MethodDefinition[] = [
 const BY_ID = new Map<string, MethodDefinition>(DEFINITIONS.map(d => [d.id, d]))
 
 /** What a client may show about a method: no functions, only data. */
-export interface MethodListing {
-  id: MethodId
-  label: string
-  minPoints: number
-  source: string
-  summary: string
-  options: OptionDescriptor[]
-}
+export type MethodListing = Pick<MethodDefinition, 'id' | 'label' | 'minPoints' | 'source' | 'summary' | 'options'>
 
 export const METHODS: readonly MethodListing[] = DEFINITIONS.map(d => ({
   id: d.id,
