@@ -1,5 +1,6 @@
 import { describeFailure, parseDecimal, quote, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
+import type { UniformGrid } from './evaluate'
 import type { GridSpec } from './types'
 
 export const MAX_POINTS = 250_000
@@ -13,6 +14,8 @@ export interface ResolvedPoints {
   ascending: boolean
   /** What a point is called in messages. */
   noun: string
+  /** Set when every grid point is exactly from + k * step (no addition was rounded): the evaluator may step exactly. */
+  uniform: UniformGrid | null
 }
 
 function parseField(D: DecimalCtor, raw: unknown, name: string): Dec {
@@ -90,6 +93,7 @@ function resolveFresh(D: DecimalCtor, grid: unknown, at: unknown): ResolvedPoint
       at: null,
       ascending: true,
       noun: 'Grid point',
+      uniform: exactSteps(D, from, to, step) ? { from, step } : null,
     }
   }
   if (!Array.isArray(at)) throw new EngineError('invalid-grid', 'The list of points (at) must be an array of decimal strings.')
@@ -102,5 +106,17 @@ function resolveFresh(D: DecimalCtor, grid: unknown, at: unknown): ResolvedPoint
   })
   let ascending = true
   for (let k = 1; k < xs.length && ascending; k += 1) ascending = xs[k - 1]!.lte(xs[k]!)
-  return { xs, grid: null, at: xs.map(x => x.toString()), ascending, noun: 'Requested point' }
+  return { xs, grid: null, at: xs.map(x => x.toString()), ascending, noun: 'Requested point', uniform: null }
+}
+
+/**
+ * True when from + k * step is exact at the working precision for every point up to `to`: all points are multiples of
+ * 10^-s (s = the decimal places of from and step) no larger in size than max(|from|, |to|), so they need at most
+ * (integer digits) + s significant digits; if that fits the precision, no addition rounds.
+ */
+function exactSteps(D: DecimalCtor, from: Dec, to: Dec, step: Dec): boolean {
+  const places = Math.max(from.decimalPlaces(), step.decimalPlaces())
+  const largest = from.abs().gt(to.abs()) ? from.abs() : to.abs()
+  const intDigits = largest.isZero() ? 0 : Math.max(largest.e + 1, 0)
+  return intDigits + places <= D.precision
 }

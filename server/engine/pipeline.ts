@@ -2,7 +2,7 @@ import {
   DEFAULT_PRECISION, GUARD_DIGITS, MAX_PRECISION, MIN_PRECISION, decimalContext, quote, roundTo, type Dec, type DecimalCtor,
 } from './decimal'
 import { EngineError } from './errors'
-import { assertInside, evaluateAny, evaluateAscending } from './evaluate'
+import { assertInside, evaluateAny, evaluateAscending, type UniformGrid } from './evaluate'
 import { resolvePoints, type ResolvedPoints } from './grid'
 import { parseKnots, type ParsedKnots } from './knots'
 import type { MethodDefinition } from './methods/method'
@@ -108,15 +108,15 @@ export function fitRequest(request: FillRequest): FittedRequest {
  * Values at any points through the one evaluation path: sweep the pieces, map back from the transform, round.
  * Used for the output grid, for re-checking the knots and for the money view's terms.
  */
-export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = false): Dec[] {
+export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = false, uniform: UniformGrid | null = null): Dec[] {
   const { pp, transform, spec } = fitted
-  const raw = ascending ? evaluateAscending(pp, xs, spec.extrapolation) : evaluateAny(pp, xs, spec.extrapolation)
   const P = spec.precision
+  // without a transform the polynomial's exact value is rounded once, to the stated precision;
+  // with one, to the working precision, and the inverse transform's result to the stated precision
+  const digits = transform.id === 'none' ? P : spec.workingPrecision
+  const raw = ascending ? evaluateAscending(pp, xs, spec.extrapolation, digits, uniform) : evaluateAny(pp, xs, spec.extrapolation, digits)
+  if (transform.id === 'none') return raw
   const out: Dec[] = new Array<Dec>(xs.length)
-  if (transform.id === 'none') {
-    for (let k = 0; k < xs.length; k += 1) out[k] = roundTo(raw[k]!, P)
-    return out
-  }
   let atZero: Dec | null = null
   for (let k = 0; k < xs.length; k += 1) {
     const x = xs[k]!
@@ -142,10 +142,10 @@ function logDiscountAtZero(fitted: FittedRequest): Dec {
 /** Fit and evaluate at the output points: the hot path (no diagnostics, no money). */
 export function fillCore(request: FillRequest): CoreFill {
   const fitted = fitRequest(request)
-  const { xs, ascending, noun } = fitted.points
+  const { xs, ascending, noun, uniform } = fitted.points
   // under log-discount the anchor at t = 0 is part of the curve, so [0, first knot) counts as inside
   assertInside(fitted.pp, xs, fitted.spec.extrapolation, noun, ascending)
-  const values = evaluateValues(fitted, xs, ascending)
+  const values = evaluateValues(fitted, xs, ascending, uniform)
   const output: Knot[] = new Array<Knot>(xs.length)
   for (let k = 0; k < xs.length; k += 1) output[k] = { x: xs[k]!.toString(), y: values[k]!.toString() }
   return { ...fitted, values, output }
