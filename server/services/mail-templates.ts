@@ -25,3 +25,11 @@ export function passwordResetMail(to: string, link: string): OutgoingMail {
   ]
   return { to, subject: 'Set a new Knotwork password', text: `${lines.join('\n\n')}\n\nSet a new password: ${link}\n`, html: html(lines, { href: link, label: 'Set a new password' }) }
 }
+
+export function signupAttemptMail(to: string, signInLink: string, resetLink: string): OutgoingMail {
+  const lines = [
+    'Someone tried to open a new Knotwork account with this e-mail address. It already belongs to your account, so no new account was made.',
+    'If it was you, sign in instead; if you have forgotten your password, you can set a new one from the sign-in page. If it was not you, nothing has changed and you need not do anything.',
+  ]
+  return { to, subject: 'Someone tried to sign up with your address', text: `${lines.join('\n\n')}\n\nSign in: ${signInLink}\nSet a new password: ${resetLink}\n`, html: html(lines, { href: signInLink, label: 'Sign in' }) }
+}

@@ -41,19 +41,24 @@ export function readUpload(event: H3Event, maxBytes: number): Promise<{ fileName
       if (received > maxBytes + 64 * 1024) stop(tooBig()) // the whole body, multipart framing included
     }
     let file: { fileName: string; chunks: Buffer[] } | null = null
+    // the file's last chunks may still be on their way through its stream when busboy closes: wait for its end
+    let fileEnded: Promise<void> = Promise.resolve()
     bb.on('file', (field, stream, info) => {
       if (field !== 'file' || file) { stream.resume(); return }
       file = { fileName: (info.filename || 'upload').slice(0, 255), chunks: [] }
       const current = file
+      fileEnded = new Promise(done => stream.once('end', done))
       stream.on('data', (c: Buffer) => current.chunks.push(c))
       stream.on('limit', () => stop(tooBig()))
     })
     bb.on('error', () => stop(new ImportRefused(400, 'The upload was cut short or is not valid multipart/form-data.')))
     bb.on('close', () => {
-      if (settled) return
-      settled = true
-      if (!file) reject(new ImportRefused(400, 'Choose a file to upload (field "file").'))
-      else resolve({ fileName: file.fileName, data: Buffer.concat(file.chunks) })
+      void fileEnded.then(() => {
+        if (settled) return
+        settled = true
+        if (!file) reject(new ImportRefused(400, 'Choose a file to upload (field "file").'))
+        else resolve({ fileName: file.fileName, data: Buffer.concat(file.chunks) })
+      })
     })
     req.on('data', count)
     req.on('aborted', () => stop(new ImportRefused(400, 'The upload was interrupted.')))

@@ -58,6 +58,14 @@ export async function getVersion(orgId: string, tableId: string, number: number)
 
 export async function updateTable(event: H3Event, access: OrgAccess, tableId: string, input: TableUpdateInput): Promise<TableDto> {
   const table = await findTable(access.org.id, tableId)
+  const meaning = (['kind', 'axis', 'axisUnit', 'valueUnit'] as const).filter(k => input[k] !== undefined && input[k] !== table[k])
+  if (meaning.length) {
+    // what the numbers mean is part of what a reviewer checked and signed: it is fixed once a version left draft
+    const [row] = await useDb().query<{ n: number }>(`SELECT count(*)::int AS n FROM table_versions WHERE table_id = :tableId AND status <> 'draft'`, { replacements: { tableId: table.id }, type: QueryTypes.SELECT })
+    if (row!.n > 0) {
+      throw createError({ statusCode: 409, statusMessage: 'The kind, axis and units cannot change once a version has been submitted for review or signed off. Name, description and tags can; for another kind or unit, create a new table.' })
+    }
+  }
   if (input.name && input.name !== table.name && await RateTable.findOne({ where: { orgId: access.org.id, name: input.name } })) {
     throw createError({ statusCode: 409, statusMessage: `A table called "${input.name}" already exists.` })
   }

@@ -46,3 +46,16 @@ export const newDraftSchema = z.object({ fromNumber: z.number().int().min(1) })
 
 export type SavePointsInput = z.infer<typeof savePointsSchema>
 export type TableUpdateInput = z.infer<typeof tableUpdateSchema>
+
+/** The table details form: the same rules as tableUpdateSchema, with the tags typed as one comma-separated line. */
+export const tableDetailsFormSchema = z.object({
+  name: z.string().trim().min(1, { message: 'Enter a name' }).max(160, { message: 'Use at most 160 characters' }),
+  kind: z.enum(TABLE_KINDS),
+  axis: z.enum(AXES),
+  axisUnit: z.enum(AXIS_UNITS),
+  valueUnit: z.enum(VALUE_UNITS),
+  description: z.string().max(4000, { message: 'Use at most 4,000 characters' }),
+  tags: z.string()
+    .transform(text => [...new Set(text.split(',').map(t => t.trim()).filter(Boolean))])
+    .pipe(z.array(z.string().max(40, { message: 'Keep each tag to 40 characters' })).max(20, { message: 'Use at most 20 tags' })),
+})

@@ -1,5 +1,6 @@
 import { afterAll, describe, expect, it } from 'vitest'
 import { Client, DEMO, FENWICK, LARKSPUR, closeOwnerDb, count, freshOrg, ownerDb, signedIn, uniqueEmail } from './helpers'
+import { INBOX, waitForMail } from './fakes'
 
 afterAll(closeOwnerDb)
 
@@ -89,6 +90,30 @@ describe('throttling', () => {
     expect((await attacker.post('/api/auth/login', { email: DEMO.analyst, password: 'knotwork-demo-2026' })).status).toBe(429)
     // another address is not affected
     expect((await new Client().post('/api/auth/login', { email: DEMO.analyst, password: 'knotwork-demo-2026' })).status).toBe(200)
+  })
+})
+
+describe('sign-up with an address already registered', () => {
+  it('is refused, makes nothing, and tells the address\'s owner by e-mail', async () => {
+    const { email } = await freshOrg()
+    const before = await count('SELECT 1 FROM organisations')
+    const r = await new Client().post<{ statusMessage: string }>('/api/auth/signup', { name: 'Someone Else', email, password: 'a long enough password', organisation: 'Copycat Ltd' })
+    expect(r.status).toBe(409)
+    expect(r.body.statusMessage).toMatch(/sign in instead/)
+    expect(await count('SELECT 1 FROM organisations')).toBe(before)
+    if (INBOX) expect((await waitForMail(email, 'tried to sign up')).text).toContain('no new account was made')
+  })
+
+  it('answers 429 after 10 refusals from one address, and lets other addresses sign up', async () => {
+    const { email } = await freshOrg()
+    const prober = new Client()
+    for (let i = 0; i < 10; i++) {
+      expect((await prober.post('/api/auth/signup', { name: 'Probe', email, password: 'a long enough password', organisation: 'Probe Co' })).status).toBe(409)
+    }
+    const blocked = await prober.post('/api/auth/signup', { name: 'Probe', email: uniqueEmail('new'), password: 'a long enough password', organisation: 'Probe Co' })
+    expect(blocked.status).toBe(429)
+    expect(Number(blocked.headers.get('retry-after'))).toBeGreaterThan(0)
+    expect((await new Client().post('/api/auth/signup', { name: 'Fresh', email: uniqueEmail('fresh'), password: 'a long enough password', organisation: `Fresh ${Date.now()}` })).status).toBe(201)
   })
 })
 

@@ -1,7 +1,7 @@
 import { generateKeyPairSync } from 'node:crypto'
 import ExcelJS from 'exceljs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { Client, DEMO, LARKSPUR, closeOwnerDb, ownerDb, signedIn } from './helpers'
+import { Client, DEMO, LARKSPUR, closeOwnerDb, multipartFile, ownerDb, postRefusable, signedIn } from './helpers'
 import { filledDraft, newTable } from './review-helpers'
 import { SHEET, readWorkbookCells, signBytes, canonicalBytes, keyIdOf, writeSignedWorkbook, contentFromSheets } from '../../server/lib/signing'
 import type { ExportVerdictDto } from '../../shared/types/exports'
@@ -96,6 +96,7 @@ describe('signed export against the built server', () => {
     const tableId = await newTable(LARKSPUR, DEMO.analyst)
     const v = await filledDraft(tableId, DEMO.analyst)
     expect((await auditor.get(`/api/orgs/${LARKSPUR}/tables/${tableId}/versions/${v.number}/export`)).status).toBe(409)
-    expect((await check(auditor, Buffer.alloc(11 * 1024 * 1024, 1), 'big.xlsx')).status).toBe(413)
+    const big = multipartFile('file', 'big.xlsx', Buffer.alloc(11 * 1024 * 1024, 1))
+    expect((await postRefusable(auditor, `/api/orgs/${LARKSPUR}/exports/verify`, big.body, big.contentType)).status).toBe(413)
   })
 })

@@ -1,6 +1,7 @@
 // Shared helpers for API tests: they run against the built server and the throwaway
 // database that scripts/test.sh prepared (KW_BASE_URL, KW_DATABASE_OWNER_URL).
 import { randomBytes } from 'node:crypto'
+import http from 'node:http'
 import { Sequelize } from 'sequelize'
 import pg from 'pg'
 
@@ -101,4 +102,33 @@ export async function closeOwnerDb() {
 export async function count(sql: string, replacements: Record<string, unknown> = {}): Promise<number> {
   const [rows] = await ownerDb().query(`SELECT count(*)::int AS n FROM (${sql}) q`, { replacements })
   return (rows as { n: number }[])[0]!.n
+}
+
+/**
+ * POST a large body that the server may refuse before reading it all: the answer is taken as soon as it arrives, and a
+ * connection the server closes mid-upload (EPIPE, reset) after answering is not an error. fetch would fail in that case.
+ */
+export function postRefusable(client: Client, path: string, body: Buffer, contentType: string): Promise<{ status: number; text: string }> {
+  const url = new URL(BASE + path)
+  return new Promise((resolve, reject) => {
+    let status = 0
+    let text = ''
+    const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'x-forwarded-for': client.address, 'content-type': contentType, 'content-length': body.length } })
+    req.on('response', (res) => {
+      status = res.statusCode ?? 0
+      res.setEncoding('utf8')
+      res.on('data', (c: string) => { text += c })
+      res.on('end', () => resolve({ status, text }))
+      res.on('error', () => resolve({ status, text }))
+    })
+    req.on('error', error => (status ? resolve({ status, text }) : reject(error)))
+    req.end(body)
+  })
+}
+
+/** A multipart/form-data body with one file field, and its content type. */
+export function multipartFile(field: string, filename: string, data: Buffer): { body: Buffer; contentType: string } {
+  const boundary = `kw${randomBytes(8).toString('hex')}`
+  const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="${field}"; filename="${filename}"\r\nContent-Type: application/octet-stream\r\n\r\n`)
+  return { body: Buffer.concat([head, data, Buffer.from(`\r\n--${boundary}--\r\n`)]), contentType: `multipart/form-data; boundary=${boundary}` }
 }

@@ -25,7 +25,7 @@ describe('the demo workbook, step by step', () => {
     const client = await signedIn(DEMO.analyst)
     const { xlsx } = await makeDemoWorkbook()
     const up = await upload(client, LARKSPUR, 'larkspur-pensioner-study-2026.xlsx', xlsx)
-    expect(up.status).toBe(201)
+    expect(up.status, JSON.stringify(up.body)).toBe(201)
     expect(up.body.sheets.map(s => s.name)).toEqual(['Study 2026', 'Read me'])
     const base = `/api/orgs/${LARKSPUR}/imports/${up.body.id}`
     const info = await client.get<{ sheet: { headerGuess: number }; columns: { role: string; valueUnit: string; unitReason: string | null; kind: string }[] }>(`${base}?sheet=Study%202026`)

@@ -48,6 +48,30 @@ describe('tables and versions', () => {
   })
 })
 
+describe('table details', () => {
+  it('renames and re-tags a table, audited; a taken name is refused', async () => {
+    const url = await freshTable(analyst)
+    const name = `Renamed ${Math.random().toString(36).slice(2, 8)}`
+    const r = await analyst.req<{ name: string; tags: string[]; description: string }>('PATCH', url, { name, tags: ['2026 basis', 'pensioners'], description: 'Select period excluded.' })
+    expect(r.status).toBe(200)
+    expect(r.body).toMatchObject({ name, tags: ['2026 basis', 'pensioners'], description: 'Select period excluded.' })
+    expect(await count(`SELECT 1 FROM audit_events WHERE action = 'table.update' AND object_id = :id`, { id: url.split('/').pop() })).toBe(1)
+    const taken = await analyst.req<{ statusMessage: string }>('PATCH', url, { name: 'Discount curve 2026-09-30' })
+    expect(taken.status).toBe(409)
+  })
+
+  it('changes the kind or units only while every version is a working draft', async () => {
+    const url = await freshTable(analyst)
+    expect((await analyst.req('PATCH', url, { valueUnit: 'per-mille' })).status).toBe(200)
+    const id = url.split('/').pop()
+    await ownerDb().query(`UPDATE table_versions SET status = 'in-review' WHERE table_id = :id`, { replacements: { id } })
+    const refused = await analyst.req<{ statusMessage: string }>('PATCH', url, { kind: 'lapse' })
+    expect(refused.status).toBe(409)
+    expect(refused.body.statusMessage).toMatch(/cannot change once a version/)
+    expect((await analyst.req('PATCH', url, { kind: 'mortality', description: 'Same kind is fine.' })).status).toBe(200)
+  })
+})
+
 describe('saving a draft', () => {
   it('saves under the lock, sorts the points, changes the hash and writes an audit event', async () => {
     const v = (await analyst.get<Version>(`${tableUrl}/versions/1`)).body

@@ -3,15 +3,23 @@ import { hashPassword } from '../../lib/password'
 import { Membership, Organisation, User } from '../../database/models'
 import { freeSlug } from '../../services/organisations'
 import { describeMe } from '../../services/me'
+import { signupAttemptMail } from '../../services/mail-templates'
 
-// Creates an organisation and makes the new person its administrator.
+const IN_USE = 'This e-mail cannot be used to sign up. If it is yours, sign in instead.'
+
+// Creates an organisation and makes the new person its administrator. An address already registered is refused (and
+// its owner told by e-mail); refusals are throttled per client address so the answer cannot be used to list accounts quickly.
 export default defineEventHandler(async (event) => {
   const input = await readValidBody(event, signupSchema)
+  const ip = clientAddress(event)
+  const wait = await signupRetryAfter(ip)
+  if (wait > 0) {
+    setResponseHeader(event, 'retry-after', wait)
+    throw createError({ statusCode: 429, statusMessage: `Too many sign-up attempts from this network. Try again in ${Math.ceil(wait / 60)} minute(s).` })
+  }
   const passwordHash = await hashPassword(input.password)
   const user = await inTransaction(async (transaction) => {
-    if (await User.findOne({ where: { email: input.email }, transaction })) {
-      throw createError({ statusCode: 409, statusMessage: 'This e-mail cannot be used to sign up. If it is yours, sign in instead.' })
-    }
+    if (await User.findOne({ where: { email: input.email }, transaction })) return null
     const user = await User.create({ email: input.email, name: input.name, passwordHash }, { transaction })
     const org = await Organisation.create({ name: input.organisation, slug: await freeSlug(input.organisation, transaction) }, { transaction })
     await Membership.create({ orgId: org.id, userId: user.id, role: 'admin' }, { transaction })
@@ -20,6 +28,12 @@ export default defineEventHandler(async (event) => {
     await audit(event, { orgId: org.id, action: 'member.add', objectType: 'user', objectId: user.id, detail: { role: 'admin', via: 'sign-up' }, actor }, transaction)
     return user
   })
+  if (!user) {
+    await recordSignupRefusal(ip)
+    await sendMail(signupAttemptMail(input.email, appLink('/signin'), appLink('/forgot-password')))
+      .catch(error => console.error('[signup] notice to the existing account not sent:', error))
+    throw createError({ statusCode: 409, statusMessage: IN_USE })
+  }
   await startSession(event, user)
   setResponseStatus(event, 201)
   return describeMe(user)
