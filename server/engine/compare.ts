@@ -19,24 +19,50 @@ function defaultLabel(spec: MethodSpec, request: FillRequest): string {
  * (and where), and every money figure against a baseline (default the first method), as absolute and percent differences.
  * A method that cannot fill the request is reported with its message instead of failing the whole comparison.
  */
-export function compare(request: FillRequest, methods: MethodSpec[], options: { baseline?: string } = {}): CompareResult {
+export function compare(request: FillRequest, methods: MethodSpec[], options: CompareOptions = {}): CompareResult {
+  const steps = compareSteps(request, methods, options)
+  for (;;) {
+    const step = steps.next()
+    if (step.done) return step.value
+  }
+}
+
+/**
+ * The same comparison, awaiting `pause` after each method's fill: a server can let other requests run between methods and
+ * stop (by throwing from `pause`) when nobody waits for the answer any more. Same result as compare().
+ */
+export async function compareAsync(request: FillRequest, methods: MethodSpec[], options: CompareOptions, pause: () => Promise<void>): Promise<CompareResult> {
+  const steps = compareSteps(request, methods, options)
+  for (;;) {
+    const step = steps.next()
+    if (step.done) return step.value
+    await pause()
+  }
+}
+
+export interface CompareOptions { baseline?: string }
+
+/** compare() as steps: yields after each method's fill, returns the comparison. */
+function* compareSteps(request: FillRequest, methods: MethodSpec[], options: CompareOptions): Generator<void, CompareResult> {
   if (!Array.isArray(methods) || methods.length === 0) throw new EngineError('invalid-request', 'Choose at least one method to compare.')
   if (methods.length > MAX_METHODS) throw new EngineError('invalid-request', `At most ${MAX_METHODS} methods can be compared at once.`)
   const seen = new Map<string, number>()
-  const entries: CompareEntry[] = methods.map((spec) => {
+  const entries: CompareEntry[] = []
+  for (const spec of methods) {
     let label = spec.label ?? defaultLabel(spec, request)
     const n = (seen.get(label) ?? 0) + 1
     seen.set(label, n)
     if (n > 1) label = `${label} #${n}`
     try {
       const result = fill({ ...request, method: spec.method, options: spec.options ?? {}, transform: spec.transform ?? request.transform })
-      return { label, ok: true as const, result }
+      entries.push({ label, ok: true as const, result })
     }
     catch (error) {
-      if (error instanceof EngineError) return { label, ok: false as const, error: error.message, code: error.code }
-      throw error
+      if (!(error instanceof EngineError)) throw error
+      entries.push({ label, ok: false as const, error: error.message, code: error.code })
     }
-  })
+    yield
+  }
   const baselineLabel = options.baseline ?? entries[0]!.label
   const baseline = entries.find(e => e.label === baselineLabel || (e.ok && e.result.spec.method === baselineLabel))
   if (!baseline) throw new EngineError('invalid-request', `Baseline '${baselineLabel}' is not one of the compared methods.`)

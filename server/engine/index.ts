@@ -3,7 +3,7 @@
  * Pure TypeScript: imports decimal.js and nothing from the framework or the database.
  */
 export { fill } from './fill'
-export { compare } from './compare'
+export { compare, compareAsync } from './compare'
 export { EngineError, type EngineErrorCode } from './errors'
 export { METHODS, type MethodListing } from './registry'
 export type { OptionDescriptor } from './methods/method'

@@ -1,7 +1,7 @@
 import { performance } from 'node:perf_hooks'
 import { QueryTypes, type Transaction } from 'sequelize'
 import type { H3Event } from 'h3'
-import { compare, fill, EngineError, METHODS, TRANSFORM_LISTING, ENGINE_VERSION, REVIEW_CAUTION } from '../engine/index'
+import { compareAsync, fill, EngineError, METHODS, TRANSFORM_LISTING, ENGINE_VERSION, REVIEW_CAUTION } from '../engine/index'
 import type { FillResult } from '../engine/types'
 import type { OrgAccess } from '../utils/auth'
 import type { CompareInput, SaveFillInput } from '../../shared/schemas/fills'
@@ -32,7 +32,7 @@ function engineFailure(error: unknown): never {
 }
 
 /** Every chosen method over the version's stored points, through the engine's compare (read-only: any version). */
-export async function runCompare(access: OrgAccess, tableId: string, number: number, input: CompareInput): Promise<CompareResponseDto> {
+export async function runCompare(access: OrgAccess, tableId: string, number: number, input: CompareInput, gone: () => boolean = () => false): Promise<CompareResponseDto> {
   const table = await findTable(access.org.id, tableId)
   const version = await versionRow(access.org.id, tableId, number)
   const knots = await readPoints(version.id)
@@ -41,7 +41,12 @@ export async function runCompare(access: OrgAccess, tableId: string, number: num
   const started = performance.now()
   let result
   try {
-    result = compare(requests[0]!, input.methods.map((m, i) => ({ method: m.method, options: m.options ?? {}, transform: requests[i]!.transform, ...(m.label ? { label: m.label } : {}) })), input.baseline ? { baseline: input.baseline } : {})
+    const specs = input.methods.map((m, i) => ({ method: m.method, options: m.options ?? {}, transform: requests[i]!.transform, ...(m.label ? { label: m.label } : {}) }))
+    // between methods: let other requests run, and stop if the person cancelled (the connection is gone)
+    result = await compareAsync(requests[0]!, specs, input.baseline ? { baseline: input.baseline } : {}, async () => {
+      await new Promise(resolve => setImmediate(resolve))
+      if (gone()) throw createError({ statusCode: 499, statusMessage: 'The comparison was cancelled.' })
+    })
   }
   catch (error) { engineFailure(error) }
   const engineMs = performance.now() - started

@@ -1,7 +1,7 @@
 import Decimal from 'decimal.js'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { compare } from '../../../server/engine'
+import { compare, compareAsync } from '../../../server/engine'
 import type { FillResult, MethodSpec } from '../../../server/engine/types'
 
 // The pairwise largest difference shortlists points in binary floating point; it must still equal the
@@ -41,5 +41,27 @@ describe('compare: pairwise largest differences', () => {
         }
       },
     ), { numRuns: 40 })
+  })
+})
+
+describe('compareAsync (the server\'s driver: a pause after each method)', () => {
+  const knots = [0, 1, 2, 3, 4].map(x => ({ x: String(x), y: String((x * x) / 10 + 1) }))
+  const request = { knots, method: 'linear' as const, grid: { from: '0', to: '4', step: '0.25' } }
+
+  it('gives the same result as compare and pauses once per method', async () => {
+    let pauses = 0
+    const result = await compareAsync(request, methods, {}, async () => { pauses += 1 })
+    expect(pauses).toBe(methods.length)
+    expect(result).toEqual(compare(request, methods))
+  })
+
+  it('stops filling when the pause throws (the person cancelled)', async () => {
+    let pauses = 0
+    const stop = compareAsync(request, methods, {}, async () => {
+      pauses += 1
+      if (pauses === 2) throw new Error('cancelled')
+    })
+    await expect(stop).rejects.toThrow('cancelled')
+    expect(pauses).toBe(2)
   })
 })

@@ -9,5 +9,6 @@ export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'fills:run')
   const { table, version } = readValidParams(event, paramsSchema)
   const input = await readValidBody(event, compareSchema)
-  return runCompare(access, table, version, input)
+  const res = event.node.res
+  return runCompare(access, table, version, input, () => res.destroyed || res.socket?.destroyed === true)
 })
