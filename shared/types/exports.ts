@@ -14,3 +14,12 @@ export interface ExportVerdictDto {
   differences?: { cell: string; expected: string | null; found: string | null }[]
   differenceCount?: number
 }
+
+/** One of the organisation's Ed25519 signing keys, public part only (a JWK with its state). */
+export interface SigningKeySummaryDto {
+  kid: string
+  x: string
+  status: 'active' | 'retired'
+  createdAt: string
+  retiredAt: string | null
+}

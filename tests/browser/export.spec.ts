@@ -53,3 +53,24 @@ test('an actuary sees the second-check queue', async ({ page }) => {
   await expect(page.getByRole('heading', { name: 'Second check' })).toBeVisible()
   await shot(page, 'review-queue')
 })
+
+test('an administrator replaces the signing key; the old one stays listed as retired', async ({ page }) => {
+  await signIn(page, PEOPLE.otherAdmin)
+  await page.goto('/orgs/fenwick-rowe/verify')
+  const panel = page.getByTestId('signing-keys')
+  await expect(panel.getByRole('heading', { name: 'Signing keys' })).toBeVisible()
+  const before = await panel.locator('li[data-kid]').count()
+  await panel.getByTestId('rotate-key').click()
+  await panel.getByTestId('rotate-key-confirm').click()
+  await expect(panel.getByText('A new signing key is active')).toBeVisible()
+  await expect(panel.locator('li[data-kid]')).toHaveCount(before + 1)
+  await expect(panel.locator('li[data-kid]', { hasText: 'In use' })).toHaveCount(1)
+  await shot(page, 'signing-keys-rotated')
+})
+
+test('an auditor sees the signing keys but cannot replace them', async ({ page }) => {
+  await signIn(page, PEOPLE.auditor)
+  await page.goto('/orgs/larkspur-mutual/verify')
+  await expect(page.getByTestId('signing-keys').getByRole('heading', { name: 'Signing keys' })).toBeVisible()
+  await expect(page.getByTestId('rotate-key')).toHaveCount(0)
+})

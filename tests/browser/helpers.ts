@@ -8,6 +8,7 @@ export const PEOPLE = {
   analyst: 'priya.raman@larkspur.example',
   auditor: 'greta.lind@larkspur.example',
   both: 'felix.amari@fenwickrowe.example',
+  otherAdmin: 'oona.pike@fenwickrowe.example',
 } as const
 
 let addressCounter = 0
