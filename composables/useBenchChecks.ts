@@ -39,6 +39,20 @@ export function checkRows(curve: boolean): CheckRow[] {
       meaning: 'A rate outside its possible range (q below 0 or above 1, a negative lapse rate) breaks every calculation that uses it.',
       verdict: d => (d.outOfRange.count === 0 ? { good: true, text: `All within ${d.outOfRange.rule}.` } : { good: false, text: `${d.outOfRange.count} outside ${d.outOfRange.rule}, first at ${d.outOfRange.first.map(p => fx(p.x)).slice(0, 3).join(', ')}.` }),
     },
+    {
+      id: 'bump', name: 'Reach of a bump',
+      meaning: 'The middle given point is raised a little (1 basis point on a curve, 1 % elsewhere) and the method refitted. A local method moves the fill only near that point; Hagan and West (2006) count locality, and no overshoot of the bump, among the marks of a good curve.',
+      verdict: (d) => {
+        const b = d.bump
+        if (!b) return { good: true, text: 'Needs three or more given points.' }
+        const m = b.material
+        const reach = m ? `moves ${m.intervals} of ${b.intervals} intervals (${fx(m.from)}–${fx(m.to)})` : 'moves no interval by 1 % of the bump'
+        return {
+          good: (m?.intervals ?? 0) <= 4 && Number(b.ratio) <= 1,
+          text: `Raising ${fx(b.at)} by ${short(b.size)} ${reach}; largest change ${short(b.ratio)}× the bump${Number(b.ratio) > 1 ? ' (overshoot)' : ''}.`,
+        }
+      },
+    },
   ]
   if (curve) {
     rows.push({

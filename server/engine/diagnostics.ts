@@ -1,4 +1,5 @@
 import { roundTo, sign, type Dec } from './decimal'
+import { bumpReach } from './bump'
 import { evaluateValues, type CoreFill } from './pipeline'
 import { hornerDerivative, type PiecewisePolynomial } from './piecewise'
 import type { CurvatureReport, Diagnostics, ForwardReport, Located, MonotonicityReport, RangeReport, Span, TableKind } from './types'
@@ -21,6 +22,7 @@ export function computeDiagnostics(core: CoreFill): Diagnostics {
     monotonicity: monotonicity(core.knots.y, xs, ys),
     outOfRange: outOfRange(core.spec.kind, xs, ys),
     forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P) : null,
+    bump: bumpReach(core),
     notes: [...core.notes, ...extrapolationNotes(core)],
   }
 }

@@ -49,8 +49,10 @@ function resolvePrecision(value: unknown): number {
   return value
 }
 
+const NO_POINTS: ResolvedPoints = { xs: [], grid: null, at: [], ascending: true, noun: 'Point', uniform: null }
+
 /** Resolve, validate and fit: everything up to, not including, evaluation at the output points. */
-export function fitRequest(request: FillRequest): FittedRequest {
+export function fitRequest(request: FillRequest, withPoints = true): FittedRequest {
   if (typeof request !== 'object' || request === null) throw new EngineError('invalid-request', 'The request must be an object.')
   const def = methodDefinition(request.method)
   const options = resolveOptions(def, request.options)
@@ -69,7 +71,8 @@ export function fitRequest(request: FillRequest): FittedRequest {
   if (knots.x.length < def.minPoints) {
     throw new EngineError('too-few-points', `Method ${def.id} needs at least ${def.minPoints} points; ${knots.x.length} ${knots.x.length === 1 ? 'was' : 'were'} given.`)
   }
-  const points = resolvePoints(D, request.grid, request.at)
+  // without points (a refit for a check): the caller evaluates where it needs, and the kept grid resolution stays
+  const points = withPoints ? resolvePoints(D, request.grid, request.at) : NO_POINTS
   const notes: string[] = []
   let x = knots.x
   const y = knots.y.map((value, i) => {

@@ -115,7 +115,26 @@ export interface Diagnostics {
   monotonicity: MonotonicityReport
   outOfRange: RangeReport
   forwards: ForwardReport | null
+  /** Locality of a bump of the middle given point (null with fewer than 3 points, or when the bumped value is outside the transform's domain). */
+  bump: BumpReport | null
   notes: string[]
+}
+
+export interface BumpReport {
+  basis: string
+  /** The given point that was moved, and by how much (on the table's per-unit scale). */
+  at: string
+  size: string
+  /** Intervals between given points. */
+  intervals: number
+  /** Where anything changed at the stated precision: first and last given point of the changed intervals. */
+  changed: { from: string, to: string, intervals: number } | null
+  /** Where the change is at least 1 % of the bump. */
+  material: { from: string, to: string, intervals: number } | null
+  largest: string
+  largestAt: string
+  /** largest / size, 6 significant digits. */
+  ratio: string
 }
 
 export interface MoneyFigure {
