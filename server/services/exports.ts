@@ -9,6 +9,7 @@ import type { ExportVerdictDto } from '../../shared/types/exports'
 import { activeSigningKey, publicKeyById } from './signing-keys'
 
 type Row = Record<string, unknown>
+interface OrgRef { id: string, slug: string, name: string }
 const person = (r: Row, p: string): Person | null => (r[`${p}_email`] ? { name: r[`${p}_name`] as string, email: r[`${p}_email`] as string } : null)
 const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null)
 const pairs = (rows: { x: string; y: string }[]): Pair[] => rows.map(r => [canonicalDecimal(r.x), canonicalDecimal(r.y)])
@@ -19,7 +20,7 @@ async function pointsOf(table: 'version_points' | 'version_fill_points', version
 }
 
 /** The content object of a signed-off (or since withdrawn) version, exactly as it will be signed. */
-async function signedContent(access: OrgAccess, tableId: string, number: number, keyId: string): Promise<SignedContent> {
+async function signedContent(org: OrgRef, tableId: string, number: number, keyId: string): Promise<SignedContent> {
   if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('version')
   const people = ['au:author_id', 'fb:filled_by', 'sb:submitted_by', 'ab:approved_by'].map((s) => {
     const [p, col] = s.split(':')
@@ -29,13 +30,13 @@ async function signedContent(access: OrgAccess, tableId: string, number: number,
     SELECT v.*, t.name AS table_name, t.kind, t.axis, t.axis_unit, t.value_unit, ${people.map(p => p.cols).join(', ')}
     FROM table_versions v JOIN rate_tables t ON t.id = v.table_id ${people.map(p => p.join).join(' ')}
     WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number`,
-  { replacements: { orgId: access.org.id, tableId, number }, type: QueryTypes.SELECT })
+  { replacements: { orgId: org.id, tableId, number }, type: QueryTypes.SELECT })
   if (!r) notFound('version')
   if (r.status !== 'approved' && r.status !== 'retired') throw createError({ statusCode: 409, statusMessage: 'Only a signed-off version can be exported with a signature.' })
   const id = r.id as string
   return {
     format: SIGNED_FORMAT,
-    organisation: { slug: access.org.slug, name: access.org.name },
+    organisation: { slug: org.slug, name: org.name },
     table: { id: tableId, name: r.table_name as string, kind: r.kind as string, axis: r.axis as string, axisUnit: r.axis_unit as string, valueUnit: r.value_unit as string },
     version: { id, number, status: r.status as string, contentHash: r.content_hash as string, notes: r.notes as string },
     points: await pointsOf('version_points', id),
@@ -54,7 +55,7 @@ async function signedContent(access: OrgAccess, tableId: string, number: number,
 
 export async function exportSignedVersion(event: H3Event, access: OrgAccess, tableId: string, number: number): Promise<{ fileName: string; data: Buffer }> {
   const key = await activeSigningKey(event, access.org.id)
-  const content = await signedContent(access, tableId, number, key.kid)
+  const content = await signedContent(access.org, tableId, number, key.kid)
   const signature = signBytes(canonicalBytes(content), key.privateKey)
   const data = await writeSignedWorkbook(content, { signature, keyId: key.kid, x: key.x })
   await audit(event, { orgId: access.org.id, action: 'export.download', objectType: 'table_version', objectId: content.version.id, detail: { tableId, number, keyId: key.kid, bytes: data.length, signedAt: content.signedAt } })
@@ -98,4 +99,19 @@ export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: 
 
 function summary(c: SignedContent): NonNullable<ExportVerdictDto['signed']> {
   return { tableId: c.table.id, tableName: c.table.name, version: c.version.number, approvedBy: c.approvedBy?.name ?? null, approvedAt: c.approvedAt, signedAt: c.signedAt, points: c.points.length, values: c.fill?.values.length ?? 0 }
+}
+
+/**
+ * The table's current signed-off version as a production system reads it: the same content object an export signs, its
+ * Ed25519 signature over the RFC 8785 canonical bytes, and the key id (public keys: /api/keys/<org>.json). 404 when the
+ * table has no signed-off version.
+ */
+export async function signedOffPayload(event: H3Event, org: OrgRef, tableId: string): Promise<{ content: SignedContent, signature: string, keyId: string }> {
+  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('table')
+  const [row] = await useDb().query<{ number: number }>(`SELECT number FROM table_versions WHERE org_id = :orgId AND table_id = :tableId AND status = 'approved'`,
+    { replacements: { orgId: org.id, tableId }, type: QueryTypes.SELECT })
+  if (!row) notFound('signed-off version')
+  const key = await activeSigningKey(event, org.id)
+  const content = await signedContent(org, tableId, row.number, key.kid)
+  return { content, signature: signBytes(canonicalBytes(content), key.privateKey), keyId: key.kid }
 }

@@ -4,6 +4,7 @@ import { fillsRoutes } from './fills'
 import { membersRoutes } from './members'
 import { billingRoutes } from './billing'
 import { reviewRoutes } from './review'
+import { readTokenRoutes } from './read-tokens'
 import type { RouteExpectation } from './types'
 
 // Each feature adds its own file and spreads it here.
@@ -14,4 +15,5 @@ export const ROUTES: Record<string, RouteExpectation> = {
   ...tablesRoutes,
   ...reviewRoutes,
   ...fillsRoutes,
+  ...readTokenRoutes,
 }

@@ -28,3 +28,5 @@ export const ROLE_ONLY = (allowed: Caller[]): Record<Caller, Expect> => ({
 export const EVERY_MEMBER = ROLE_ONLY(['admin', 'actuary', 'analyst', 'auditor'])
 export const SIGNED_IN = { anonymous: 401, admin: 'pass', actuary: 'pass', analyst: 'pass', auditor: 'pass', otherOrg: 'pass' } as Record<Caller, Expect>
 export const PUBLIC = { anonymous: 'pass', admin: 'pass', actuary: 'pass', analyst: 'pass', auditor: 'pass', otherOrg: 'pass' } as Record<Caller, Expect>
+/** The same status for every caller. */
+export const ALL = (status: Expect) => Object.fromEntries(['anonymous', 'admin', 'actuary', 'analyst', 'auditor', 'otherOrg'].map(c => [c, status])) as Record<Caller, Expect>

@@ -1,0 +1,7 @@
+import { listReadTokens } from '../../../../services/read-tokens'
+
+// The organisation's read tokens (names, hints, last use; never the tokens themselves).
+export default defineEventHandler(async (event) => {
+  const access = await requirePermission(event, 'members:manage')
+  return listReadTokens(access.org.id)
+})

@@ -1,0 +1,65 @@
+import { createHash, randomBytes } from 'node:crypto'
+import type { H3Event } from 'h3'
+import { QueryTypes } from 'sequelize'
+import type { OrgAccess } from '../utils/auth'
+import type { ReadTokenDto } from '../../shared/types/read-tokens'
+
+type Row = Record<string, unknown>
+const PREFIX = 'kwr_'
+const hashOf = (token: string) => createHash('sha256').update(token).digest('hex')
+const toDto = (r: Row): ReadTokenDto => ({
+  id: r.id as string,
+  name: r.name as string,
+  hint: r.hint as string,
+  createdBy: (r.created_by_name as string | null) ?? null,
+  createdAt: new Date(r.created_at as string).toISOString(),
+  lastUsedAt: r.last_used_at ? new Date(r.last_used_at as string).toISOString() : null,
+  revokedAt: r.revoked_at ? new Date(r.revoked_at as string).toISOString() : null,
+})
+
+export async function listReadTokens(orgId: string): Promise<ReadTokenDto[]> {
+  const rows = await useDb().query<Row>(`SELECT t.*, u.name AS created_by_name FROM read_tokens t LEFT JOIN users u ON u.id = t.created_by
+    WHERE t.org_id = :orgId ORDER BY t.revoked_at IS NOT NULL, t.created_at DESC`, { replacements: { orgId }, type: QueryTypes.SELECT })
+  return rows.map(toDto)
+}
+
+/** A new token: 32 random bytes, base64url, with a prefix that says what it is. Returned once, stored as its SHA-256. */
+export async function createReadToken(event: H3Event, access: OrgAccess, name: string): Promise<{ token: string, readToken: ReadTokenDto }> {
+  const token = `${PREFIX}${randomBytes(32).toString('base64url')}`
+  const hint = `${token.slice(0, 8)}…${token.slice(-4)}`
+  const id = await inTransaction(async (t) => {
+    const [row] = await useDb().query<{ id: string }>(`INSERT INTO read_tokens (org_id, name, token_hash, hint, created_by) VALUES (:orgId, :name, :hash, :hint, :userId) RETURNING id`,
+      { replacements: { orgId: access.org.id, name, hash: hashOf(token), hint, userId: access.user.id }, type: QueryTypes.SELECT, transaction: t })
+    await audit(event, { orgId: access.org.id, action: 'read-token.create', objectType: 'read_token', objectId: row!.id, detail: { name, hint } }, t)
+    return row!.id
+  })
+  const readToken = (await listReadTokens(access.org.id)).find(r => r.id === id)!
+  return { token, readToken }
+}
+
+export async function revokeReadToken(event: H3Event, access: OrgAccess, id: string): Promise<void> {
+  await inTransaction(async (t) => {
+    const rows = await useDb().query<{ name: string }>(`UPDATE read_tokens SET revoked_at = now() WHERE id = :id AND org_id = :orgId AND revoked_at IS NULL RETURNING name`,
+      { replacements: { id, orgId: access.org.id }, type: QueryTypes.SELECT, transaction: t })
+    if (!rows.length) notFound('read token')
+    await audit(event, { orgId: access.org.id, action: 'read-token.revoke', objectType: 'read_token', objectId: id, detail: { name: rows[0]!.name } }, t)
+  })
+}
+
+export interface ReadAccess { tokenId: string, tokenName: string, org: { id: string, slug: string, name: string } }
+
+/** The organisation a bearer token reads, or 401 (missing, unknown and revoked tokens answer alike). */
+export async function requireReadToken(event: H3Event): Promise<ReadAccess> {
+  const header = getRequestHeader(event, 'authorization') ?? ''
+  const token = /^Bearer\s+(\S+)$/i.exec(header)?.[1] ?? ''
+  const [row] = token.startsWith(PREFIX)
+    ? await useDb().query<Row>(`UPDATE read_tokens r SET last_used_at = now() FROM organisations o
+        WHERE r.token_hash = :hash AND r.revoked_at IS NULL AND o.id = r.org_id
+        RETURNING r.id, r.name, o.id AS org_id, o.slug, o.name AS org_name`, { replacements: { hash: hashOf(token) }, type: QueryTypes.SELECT })
+    : []
+  if (!row) {
+    setResponseHeader(event, 'www-authenticate', 'Bearer realm="knotwork"')
+    throw createError({ statusCode: 401, statusMessage: 'A valid read token is needed: send "Authorization: Bearer <token>". An administrator creates tokens on the members page.' })
+  }
+  return { tokenId: row.id as string, tokenName: row.name as string, org: { id: row.org_id as string, slug: row.slug as string, name: row.org_name as string } }
+}

@@ -1,0 +1,82 @@
+// The read API for production systems. The signature is checked outside the app's own code: RFC 8785 canonical JSON by
+// the canonicalize package and Ed25519 (RFC 8032) by Node's crypto, against the published JWK set.
+import { createPublicKey, verify } from 'node:crypto'
+import canonicalize from 'canonicalize'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { BASE, Client, DEMO, FENWICK, LARKSPUR, closeOwnerDb, count, signedIn } from './helpers'
+
+afterAll(closeOwnerDb)
+let admin: Client
+let token: string
+let tokenId: string
+
+const read = (path: string, bearer = token) => fetch(`${BASE}${path}`, { headers: { authorization: `Bearer ${bearer}`, accept: 'application/json' } })
+
+beforeAll(async () => {
+  admin = await signedIn(DEMO.admin)
+  const r = await admin.post<{ token: string, readToken: { id: string, name: string, hint: string } }>(`/api/orgs/${LARKSPUR}/read-tokens`, { name: 'Valuation system' })
+  expect(r.status).toBe(201)
+  token = r.body.token
+  tokenId = r.body.readToken.id
+})
+
+describe('read tokens', () => {
+  it('are shown once; the list names them by a hint and never holds the token', async () => {
+    expect(token).toMatch(/^kwr_[A-Za-z0-9_-]{43}$/)
+    const list = await admin.get<{ id: string, name: string, hint: string }[]>(`/api/orgs/${LARKSPUR}/read-tokens`)
+    const mine = list.body.find(t => t.id === tokenId)!
+    expect(mine).toMatchObject({ name: 'Valuation system', hint: `${token.slice(0, 8)}…${token.slice(-4)}` })
+    expect(JSON.stringify(list.body)).not.toContain(token)
+  })
+
+  it('refuses a missing, malformed or unknown token with 401 and says how to authenticate', async () => {
+    for (const bearer of ['', 'nonsense', `kwr_${'A'.repeat(43)}`]) {
+      const r = await read('/api/v1/tables', bearer)
+      expect(r.status).toBe(401)
+      expect(r.headers.get('www-authenticate')).toContain('Bearer')
+    }
+  })
+})
+
+describe('the read API', () => {
+  it('lists only this organisation\'s tables that have a signed-off version', async () => {
+    const r = await read('/api/v1/tables')
+    expect(r.status).toBe(200)
+    const tables = await r.json() as { name: string, signedOff: { number: number } }[]
+    expect(tables.map(t => t.name)).toEqual(expect.arrayContaining(['Discount curve 2026-09-30', 'Pensioner mortality, female']))
+    expect(tables.map(t => t.name)).not.toContain('Lapse rates, regular premium savings') // a working draft only
+    expect(tables.map(t => t.name)).not.toContain('Client scheme mortality, unisex') // another organisation's
+  })
+
+  it('returns a signed-off table with an Ed25519 signature that verifies against the published keys, and audits the read', async () => {
+    const tables = await (await read('/api/v1/tables')).json() as { id: string, name: string }[]
+    const curve = tables.find(t => t.name === 'Discount curve 2026-09-30')!
+    const r = await read(`/api/v1/tables/${curve.id}`)
+    expect(r.status).toBe(200)
+    const body = await r.json() as { content: { format: string, table: { name: string }, version: { status: string }, points: [string, string][] }, signature: string, keyId: string }
+    expect(body.content).toMatchObject({ format: 'knotwork-signed-table/1', table: { name: 'Discount curve 2026-09-30' }, version: { status: 'approved' } })
+    expect(body.content.points.length).toBeGreaterThan(5)
+    const jwks = await (await fetch(`${BASE}/api/keys/${LARKSPUR}.json`)).json() as { keys: { kid: string }[] }
+    const jwk = jwks.keys.find(k => k.kid === body.keyId)!
+    const ok = verify(null, Buffer.from(canonicalize(body.content)!), createPublicKey({ key: jwk as never, format: 'jwk' }), Buffer.from(body.signature, 'base64'))
+    expect(ok).toBe(true)
+    expect(await count(`SELECT 1 FROM audit_events WHERE action = 'read-token.read' AND detail->>'token' = 'Valuation system'`)).toBeGreaterThan(0)
+  })
+
+  it('answers 404 for a table without a signed-off version and for another organisation\'s table', async () => {
+    const fenwickAdmin = await signedIn(DEMO.otherAdmin)
+    const theirs = await fenwickAdmin.get<{ id: string, name: string }[]>(`/api/orgs/${FENWICK}/tables`)
+    expect((await read(`/api/v1/tables/${theirs.body[0]!.id}`)).status).toBe(404)
+    const ours = await admin.get<{ id: string, name: string }[]>(`/api/orgs/${LARKSPUR}/tables`)
+    const draftOnly = ours.body.find(t => t.name === 'Lapse rates, regular premium savings')!
+    expect((await read(`/api/v1/tables/${draftOnly.id}`)).status).toBe(404)
+  })
+
+  it('stops answering a revoked token at once', async () => {
+    const r = await admin.post<{ token: string, readToken: { id: string } }>(`/api/orgs/${LARKSPUR}/read-tokens`, { name: 'Short-lived' })
+    expect((await read('/api/v1/tables', r.body.token)).status).toBe(200)
+    expect((await admin.req('DELETE', `/api/orgs/${LARKSPUR}/read-tokens/${r.body.readToken.id}`)).status).toBe(200)
+    expect((await read('/api/v1/tables', r.body.token)).status).toBe(401)
+    expect((await admin.req('DELETE', `/api/orgs/${LARKSPUR}/read-tokens/${r.body.readToken.id}`)).status).toBe(404)
+  })
+})
