@@ -49,7 +49,7 @@ export function checkRows(curve: boolean): CheckRow[] {
         const reach = m ? `moves ${m.intervals} of ${b.intervals} intervals (${fx(m.from)}–${fx(m.to)})` : 'moves no interval by 1 % of the bump'
         return {
           good: (m?.intervals ?? 0) <= 4 && Number(b.ratio) <= 1,
-          text: `Raising ${fx(b.at)} by ${short(b.size)} ${reach}; largest change ${short(b.ratio)}× the bump${Number(b.ratio) > 1 ? ' (overshoot)' : ''}.`,
+          text: `Raising the point at ${fx(b.at)} by ${short(b.size)} ${reach}; largest change ${short(b.ratio)}× the bump${Number(b.ratio) > 1 ? ' (overshoot)' : ''}.`,
         }
       },
     },
