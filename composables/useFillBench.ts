@@ -73,39 +73,62 @@ export function useCompareRun(url: () => string) {
   /** How many runs have been started, and which one the response on screen answers (set together with it). */
   const started = ref(0)
   const answered = ref(0)
+  /** Methods filled so far, as the server reports them while it runs (null until it first answers). */
+  const progress = ref<{ done: number, total: number } | null>(null)
   let controller: AbortController | null = null
   let timer: ReturnType<typeof setInterval> | undefined
+  let poller: ReturnType<typeof setInterval> | undefined
+
+  function watchProgress(runId: string, signal: AbortSignal) {
+    const progressUrl = url().replace(/^(\/api\/orgs\/[^/]+)\/.*$/, `$1/compare-progress/${runId}`)
+    let asking = false
+    poller = setInterval(async () => {
+      if (asking || signal.aborted) return
+      asking = true
+      try { progress.value = await $fetch<{ done: number, total: number }>(progressUrl, { signal }) }
+      catch { /* not started yet, or finished: the bar keeps its last state */ }
+      finally { asking = false }
+    }, 400)
+  }
 
   async function run(body: CompareInput) {
     controller?.abort()
     controller = new AbortController()
     const id = ++started.value
     const begun = performance.now()
+    const runId = crypto.randomUUID()
     running.value = true
     error.value = null
     elapsedMs.value = 0
+    progress.value = null
     clearInterval(timer)
+    clearInterval(poller)
     timer = setInterval(() => { elapsedMs.value = performance.now() - begun }, 100)
+    watchProgress(runId, controller.signal)
     try {
-      const answer = await $fetch<CompareResponseDto>(url(), { method: 'POST', body, signal: controller.signal })
+      const answer = await $fetch<CompareResponseDto>(url(), { method: 'POST', body: { ...body, runId }, signal: controller.signal })
       if (id === started.value) {
         answered.value = id
         response.value = answer
       }
     }
     catch (e) {
+      if (id !== started.value) return // a newer run replaced this one
       const failure = e as { name?: string, data?: { statusMessage?: string }, statusMessage?: string }
       error.value = failure.name === 'AbortError' || controller?.signal.aborted
         ? 'Comparison cancelled; the previous results (if any) stay on screen.'
         : failure.data?.statusMessage ?? failure.statusMessage ?? 'The comparison failed.'
     }
     finally {
-      clearInterval(timer)
-      elapsedMs.value = performance.now() - begun
-      running.value = false
+      if (id === started.value) {
+        clearInterval(timer)
+        clearInterval(poller)
+        elapsedMs.value = performance.now() - begun
+        running.value = false
+      }
     }
   }
   function cancel() { controller?.abort() }
-  onBeforeUnmount(() => { controller?.abort(); clearInterval(timer) })
-  return { running, elapsedMs, error, response, started, answered, run, cancel }
+  onBeforeUnmount(() => { controller?.abort(); clearInterval(timer); clearInterval(poller) })
+  return { running, elapsedMs, error, response, started, answered, progress, run, cancel }
 }

@@ -28,15 +28,15 @@ export function compare(request: FillRequest, methods: MethodSpec[], options: Co
 }
 
 /**
- * The same comparison, awaiting `pause` after each method's fill: a server can let other requests run between methods and
+ * The same comparison, awaiting `pause(methods filled so far, methods)` after each method's fill: a server can let other requests run between methods and
  * stop (by throwing from `pause`) when nobody waits for the answer any more. Same result as compare().
  */
-export async function compareAsync(request: FillRequest, methods: MethodSpec[], options: CompareOptions, pause: () => Promise<void>): Promise<CompareResult> {
+export async function compareAsync(request: FillRequest, methods: MethodSpec[], options: CompareOptions, pause: (filled: number, of: number) => Promise<void>): Promise<CompareResult> {
   const steps = compareSteps(request, methods, options)
-  for (;;) {
+  for (let filled = 1; ; filled += 1) {
     const step = steps.next()
     if (step.done) return step.value
-    await pause()
+    await pause(filled, methods.length)
   }
 }
 

@@ -41,6 +41,8 @@ export const compareSchema = z.object({
   methods: z.array(methodChoiceSchema).min(1, { message: 'Choose at least one method' }).max(MAX_BENCH_METHODS, { message: `Compare at most ${MAX_BENCH_METHODS} methods at once` }),
   /** Label of the method the others are measured against (default: the first). */
   baseline: z.string().max(160).optional(),
+  /** Chosen by the page to ask how far the run is (GET .../compare-progress/[run]). */
+  runId: z.string().regex(/^[A-Za-z0-9-]{8,64}$/, { message: 'Not a run id' }).optional(),
 })
 
 export const saveFillSchema = z.object({

@@ -59,6 +59,22 @@ describe('compare', () => {
     expect((await other.post(base.replace(LARKSPUR, FENWICK) + '/compare', body)).status).toBe(404)
   })
 
+  it('reports how many methods are filled while it runs, to the person who started it only', async () => {
+    const runId = `run-${Date.now()}`
+    const progressUrl = `/api/orgs/${LARKSPUR}/compare-progress/${runId}`
+    const seen: { done: number, total: number }[] = []
+    const running = actuary.post(`${base}/compare`, { grid: { from: '55', to: '110', step: '0.01' }, methods: [...METHODS, { method: 'pchip' as const }], runId })
+    for (let i = 0; i < 40 && seen.at(-1)?.done !== 4; i++) {
+      const p = await actuary.get<{ done: number, total: number }>(progressUrl)
+      if (p.status === 200) seen.push(p.body)
+      await new Promise(r => setTimeout(r, 50))
+    }
+    expect((await running).status).toBe(200)
+    expect(seen.every(p => p.total === 4 && p.done >= 0 && p.done <= 4)).toBe(true)
+    expect((await actuary.get(progressUrl)).body).toEqual({ done: 4, total: 4 })
+    expect((await (await signedIn(DEMO.analyst)).get(progressUrl)).status).toBe(404)
+  })
+
   it('refuses a body that fails the shared schema', async () => {
     const r = await actuary.post<{ statusMessage: string }>(`${base}/compare`, { grid: { from: '55', to: '110', step: '0' }, methods: METHODS })
     expect(r.status).toBe(400)

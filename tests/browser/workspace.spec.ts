@@ -67,3 +67,17 @@ test('a signed-off curve can be compared, with forward rates, but takes no fill'
   await expect(page.getByTestId('bench-grid')).toContainText('358 rows')
   await shot(page, 'bench-curve')
 })
+
+test('a long comparison shows how many methods are filled, and can be cancelled', async ({ page }) => {
+  await signIn(page, PEOPLE.actuary)
+  await openBench(page, 'Pensioner mortality, male', 'draft')
+  await waitForRun(page)
+  await page.getByTestId('grid-step').fill('0.0012') // 45,834 points: a few seconds of work for three methods
+  await page.getByTestId('bench-compare').click()
+  await expect(page.getByTestId('bench-run')).toContainText(/[0-2] of 3 methods filled/, { timeout: 15_000 })
+  await expect(page.getByTestId('bench-progress-known')).toBeVisible()
+  await page.screenshot({ path: 'tests/browser/screenshots/bench-progress.png' }) // the visible part only: quick, the run goes on
+  await page.getByTestId('bench-cancel').click()
+  await expect(page.getByText('Comparison cancelled')).toBeVisible()
+  await expect(page.getByTestId('bench-compare')).toBeEnabled()
+})
