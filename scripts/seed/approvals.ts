@@ -37,8 +37,9 @@ export async function seedApprovals(db: Sequelize, t: Transaction, people: Seede
           { replacements: { id: v.id, xs: slice.map(p => p.x).join(','), ys: slice.map(p => p.y).join(',') }, transaction: t })
       }
     }
-    await db.query('UPDATE table_versions SET submitted_by = :maker, submitted_at = :sub, approved_by = :checker, approved_at = :appr WHERE id = :id',
-      { replacements: { id: v.id, maker: v.author_id ?? maker, sub: at(40), checker, appr: at(30) }, transaction: t })
+    // made an hour ago, filled, submitted and signed off since: the version's own times read in that order
+    await db.query('UPDATE table_versions SET created_at = :made, updated_at = :appr, submitted_by = :maker, submitted_at = :sub, approved_by = :checker, approved_at = :appr WHERE id = :id',
+      { replacements: { id: v.id, maker: v.author_id ?? maker, made: at(60), sub: at(40), checker, appr: at(30) }, transaction: t })
     await db.query(`INSERT INTO version_comments (org_id, version_id, author_id, kind, body, created_at) VALUES
       (:org, :id, :maker, 'submit', 'Submitted for a second check.', :sub), (:org, :id, :checker, 'approve', 'Checked against the source; signed off.', :appr)`,
     { replacements: { org: v.org_id, id: v.id, maker: v.author_id ?? maker, checker, sub: at(40), appr: at(30) }, transaction: t })
