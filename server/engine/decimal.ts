@@ -1,4 +1,5 @@
 import Decimal from 'decimal.js'
+import { expSmall } from './exact'
 
 /** Extra digits carried while fitting and evaluating; results are rounded to the requested precision at the end. */
 export const GUARD_DIGITS = 10
@@ -75,14 +76,15 @@ const expCache = new Map<DecimalCtor, Map<number, Dec>>()
 const EXP_CACHE_LIMIT = 4096
 
 /**
- * e^v computed as e^n * e^(v - n), n the nearest integer to v (e^(a+b) = e^a e^b). decimal.js's exp slows down as |v| grows,
- * so the small remainder costs about a third of the direct call; e^n is cached per context. Deterministic: the same v gives
- * the same digits whatever the cache holds.
+ * e^v computed as e^n * e^(v - n), n the nearest integer to v (e^(a+b) = e^a e^b): e^n is cached per context, the small
+ * remainder goes to expSmall (exact.ts, scaled integers, about ten times faster than decimal.js's exp). Deterministic: the
+ * same v gives the same digits whatever the cache holds. Beyond |v| > 10,000 decimal.js's exp is used as it is.
  */
 export function exp(v: Dec): Dec {
-  const n = v.toDecimalPlaces(0, Decimal.ROUND_HALF_EVEN)
-  if (n.isZero() || n.abs().gt(10000)) return v.exp()
   const ctor = v.constructor as DecimalCtor
+  const n = v.toDecimalPlaces(0, Decimal.ROUND_HALF_EVEN)
+  if (n.abs().gt(10000)) return v.exp()
+  if (n.isZero()) return expSmall(v, ctor.precision, ctor)
   let cache = expCache.get(ctor)
   if (!cache) expCache.set(ctor, cache = new Map())
   const key = n.toNumber()
@@ -91,5 +93,5 @@ export function exp(v: Dec): Dec {
     en = n.exp()
     if (cache.size < EXP_CACHE_LIMIT) cache.set(key, en)
   }
-  return v.minus(n).exp().times(en)
+  return expSmall(v.minus(n), ctor.precision, ctor).times(en)
 }

@@ -6,7 +6,7 @@
 import fc from 'fast-check'
 import Decimal from 'decimal.js'
 import { describe, expect, it } from 'vitest'
-import { decimalContext } from '../../../server/engine/decimal'
+import { decimalContext, exp } from '../../../server/engine/decimal'
 import { evaluateAscending } from '../../../server/engine/evaluate'
 import { roundScaled, toScaled } from '../../../server/engine/exact'
 import type { PiecewisePolynomial } from '../../../server/engine/piecewise'
@@ -113,5 +113,33 @@ describe('a fill on a grid and at the same points listed', () => {
     const listed = fill({ knots, method: 'cubic-natural', at: r.points.map(p => p.x), precision: 40 })
     expect(r.points).toHaveLength(6)
     expect(listed.points).toEqual(r.points)
+  })
+})
+
+// e^v: the engine's exp (e^n from decimal.js, cached; the remainder e^(v-n), |v-n| <= 1/2, on scaled integers) against
+// decimal.js's exp at 300 digits (documented as correctly rounded). The product e^n * e^(v-n) of two rounded factors is
+// rounded once more, so the bound is 2 units in the last place (1 when n = 0), as it was with decimal.js for both factors;
+// and the remainder alone must agree with decimal.js's correctly rounded exp in practically every case.
+describe('exp (transforms and money)', () => {
+  const Ref = Decimal.clone({ precision: 300, rounding: Decimal.ROUND_HALF_EVEN })
+  it('is within 2 units in the last place (1 for |v| < 1/2), for any precision the engine uses', () => {
+    fc.assert(fc.property(fc.double({ min: -700, max: 700, noNaN: true }), fc.integer({ min: 16, max: 210 }), (raw, digits) => {
+      const D = decimalContext(digits)
+      const v = new D(raw.toPrecision(17)).div(3) // a full-length decimal
+      const exact = new Ref(v.toString()).exp()
+      const ulp = new Ref(10).pow(exact.toSignificantDigits(digits).e - digits + 1)
+      const units = v.abs().lt(0.5) ? 1 : 2
+      expect(new Ref(exp(v).toString()).minus(exact).abs().lte(ulp.times(units))).toBe(true)
+    }), { numRuns: 400 })
+  })
+
+  it('on the remainder, equals decimal.js\'s correctly rounded exp in practically every case', () => {
+    let differ = 0
+    fc.assert(fc.property(fc.double({ min: -0.5, max: 0.5, noNaN: true }), fc.integer({ min: 16, max: 210 }), (raw, digits) => {
+      const D = decimalContext(digits)
+      const r = new D(raw.toPrecision(17)).div(3)
+      if (exp(r).toString() !== r.exp().toString()) differ += 1
+    }), { numRuns: 1000 })
+    expect(differ).toBeLessThanOrEqual(1)
   })
 })
