@@ -72,7 +72,9 @@ test('a long comparison shows how many methods are filled, and can be cancelled'
   await signIn(page, PEOPLE.actuary)
   await openBench(page, 'Pensioner mortality, male', 'draft')
   await waitForRun(page)
-  await page.getByTestId('grid-step').fill('0.0012') // 45,834 points: a few seconds of work for three methods
+  // 45,834 points on ln q (one exp per point): several seconds for three methods, even on a fast machine
+  await page.getByTestId('grid-step').fill('0.0012')
+  await page.getByTestId('bench-transform').selectOption('log')
   await page.getByTestId('bench-compare').click()
   await expect(page.getByTestId('bench-run')).toContainText(/[0-2] of 3 methods filled/, { timeout: 15_000 })
   await expect(page.getByTestId('bench-progress-known')).toBeVisible()
