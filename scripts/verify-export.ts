@@ -7,13 +7,7 @@
 import { readFileSync, writeFileSync, mkdirSync } from 'node:fs'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
-import { canonicalBytes, contentFromSheets, contentSha256, publicPem, readWorkbookCells, verifyWorkbookCells, type SheetCells } from '../server/lib/signing'
-import { unescapeText } from '../server/lib/signing/escape'
-
-function field(sheets: SheetCells, label: string): string | null {
-  const row = (sheets.get('Signature') ?? []).find(r => typeof r[0] === 'string' && unescapeText(r[0]) === label)
-  return typeof row?.[1] === 'string' ? unescapeText(row[1]) : null
-}
+import { canonicalBytes, contentFromSheets, contentSha256, publicPem, readWorkbookCells, signatureSheetField as field, verifyWorkbookCells } from '../server/lib/signing'
 
 /** The files openssl needs: canonical content rebuilt from the visible sheets, the raw signature, the public key. */
 export async function extractForOpenssl(file: Buffer, x: string) {

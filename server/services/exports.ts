@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 import { QueryTypes } from 'sequelize'
 import { canonicalDecimal } from '../../shared/decimal-text'
-import { SIGNED_FORMAT, canonicalBytes, readWorkbookCells, signBytes, verifyWorkbookCells, writeSignedWorkbook, type Json, type Pair, type Person, type SignedContent } from '../lib/signing'
+import { SIGNED_FORMAT, canonicalBytes, readWorkbookCells, signatureSheetField, signBytes, verifyWorkbookCells, writeSignedWorkbook, type Json, type Pair, type Person, type SignedContent } from '../lib/signing'
 import { guardXlsxZip } from '../lib/import/zip-guard'
 import { ImportRefused } from '../lib/import/limits'
 import type { OrgAccess } from '../utils/auth'
@@ -70,9 +70,8 @@ export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: 
   let sheets
   try { sheets = await readWorkbookCells(data) } catch (error) { throw new ImportRefused(422, `The workbook cannot be read: ${(error as Error).message}.`) }
   const keys = new Map<string, string | null>()
-  for (const r of sheets.get('Signature') ?? []) {
-    if (r[0] === 'Key id' && typeof r[1] === 'string') keys.set(r[1], await publicKeyById(access.org.id, r[1]))
-  }
+  const kid = signatureSheetField(sheets, 'Key id')
+  if (kid) keys.set(kid, await publicKeyById(access.org.id, kid))
   const verdict = verifyWorkbookCells(sheets, kid => keys.get(kid) ?? null)
   const base = { fileName, checkedAt: new Date().toISOString() }
   let result: ExportVerdictDto

@@ -54,18 +54,37 @@ test('an actuary sees the second-check queue', async ({ page }) => {
   await shot(page, 'review-queue')
 })
 
-test('an administrator replaces the signing key; the old one stays listed as retired', async ({ page }) => {
+test('an administrator replaces the signing key; the old one stays listed as retired, and a long history folds away', async ({ page }) => {
   await signIn(page, PEOPLE.otherAdmin)
   await page.goto('/orgs/fenwick-rowe/verify')
   const panel = page.getByTestId('signing-keys')
   await expect(panel.getByRole('heading', { name: 'Signing keys' })).toBeVisible()
-  const before = await panel.locator('li[data-kid]').count()
-  await panel.getByTestId('rotate-key').click()
-  await panel.getByTestId('rotate-key-confirm').click()
-  await expect(panel.getByText('A new signing key is active')).toBeVisible()
-  await expect(panel.locator('li[data-kid]')).toHaveCount(before + 1)
-  await expect(panel.locator('li[data-kid]', { hasText: 'In use' })).toHaveCount(1)
+  const inUse = panel.locator('li[data-kid]', { hasText: 'In use' })
+  const replace = async () => {
+    await panel.getByTestId('rotate-key').click()
+    await panel.getByTestId('rotate-key-confirm').click()
+    await expect(panel.getByText('A new signing key is active')).toBeVisible()
+  }
+  // Without an earlier export the organisation has no key yet; the same button creates the first one.
+  await expect(panel.locator('li[data-kid]').first().or(panel.getByText('No key yet'))).toBeVisible()
+  if (await inUse.count() === 0) await replace()
+  await expect(inUse).toHaveCount(1)
+  const old = await inUse.getAttribute('data-kid')
+  await replace()
+  await expect(panel.getByText('Earlier files still verify against the retired key')).toBeVisible()
+  await expect(inUse).toHaveCount(1)
+  await expect(inUse).not.toHaveAttribute('data-kid', old!)
+  await expect(panel.locator(`li[data-kid="${old}"]`)).toContainText('Retired')
   await shot(page, 'signing-keys-rotated')
+
+  for (let i = 0; i < 4; i++) expect((await page.request.post('/api/orgs/fenwick-rowe/signing-keys/rotate')).ok()).toBe(true)
+  const all = (await (await page.request.get('/api/orgs/fenwick-rowe/signing-keys')).json() as { keys: unknown[] }).keys.length
+  await page.reload()
+  await expect(panel.locator('li[data-kid]')).toHaveCount(4)
+  await shot(page, 'signing-keys-folded')
+  await panel.getByTestId('signing-keys-all').click()
+  await expect(panel.locator('li[data-kid]')).toHaveCount(all)
+  await expect(panel.locator(`li[data-kid="${old}"]`)).toContainText('Retired')
 })
 
 test('an auditor sees the signing keys but cannot replace them', async ({ page }) => {

@@ -53,6 +53,15 @@ function signatureField(rows: CellValue[][], label: string): string | null {
 }
 
 /**
+ * A field of the signature sheet ("Key id", "Public key (Ed25519 x, base64url)", ...) as it was written, with the
+ * formula-guard apostrophe removed: a base64url key id can start with "-" and is then stored as "'-...".
+ */
+export function signatureSheetField(sheets: SheetCells, label: string): string | null {
+  const sig = sheets.get(SHEET.signature)
+  return sig ? signatureField(sig, label) : null
+}
+
+/**
  * Verifies a signed workbook's cells against the public key its key id names (lookup returns
  * the key's x, or null when the key is unknown). Genuine means: the signature holds over the
  * content, and every cell of every sheet is exactly the cell that content produces.
