@@ -1,6 +1,6 @@
-import { DEFAULT_BENCH_METHODS, type FillExtrapolation, type FillMethodId, type FillTransformId } from '~~/shared/fills'
+import { DEFAULT_BENCH_METHODS, MAX_BENCH_METHODS, type FillExtrapolation, type FillMethodId, type FillTransformId } from '~~/shared/fills'
 import type { CompareInput, MethodChoice } from '~~/shared/schemas/fills'
-import type { CompareResponseDto, MethodListing } from '~~/shared/types/fills'
+import type { CompareResponseDto, MethodListing, StoredFillSpec } from '~~/shared/types/fills'
 import type { Axis, TableKind } from '~~/shared/tables'
 
 /** One method on the bench, with its option values as the form holds them. */
@@ -39,6 +39,23 @@ export function defaultSettings(kind: TableKind, axis: Axis, knots: { x: string 
 
 export function defaultMethods(listings: MethodListing[]): BenchMethod[] {
   return DEFAULT_BENCH_METHODS.map(id => listings.find(l => l.id === id)).filter((l): l is MethodListing => !!l).map(newBenchMethod)
+}
+
+/**
+ * Reopening a version that has a chosen fill: the bench starts from that fill's grid, transform, edge rule and money
+ * settings, and the chosen method (with its options) stands beside the usual three, so the comparison on screen is the
+ * one the choice was made from.
+ */
+export function benchFromSaved(settings: BenchSettings, methods: BenchMethod[], spec: StoredFillSpec | undefined, listings: MethodListing[]): { settings: BenchSettings, methods: BenchMethod[] } {
+  if (!spec?.bench) return { settings, methods }
+  const money = spec.money?.ages?.length ? { ages: spec.money.ages.join(', '), interest: spec.money.interest } : {}
+  const fromSaved = { ...settings, grid: { ...spec.bench.grid }, transform: spec.transform, extrapolation: spec.extrapolation, ...money }
+  const listing = listings.find(l => l.id === spec.method)
+  if (!listing) return { settings: fromSaved, methods }
+  const chosen = { ...newBenchMethod(listing), options: { ...newBenchMethod(listing).options, ...spec.options } }
+  const label = (m: BenchMethod) => benchLabel(m, listings.find(l => l.id === m.method))
+  const present = methods.some(m => label(m) === label(chosen))
+  return { settings: fromSaved, methods: present || methods.length >= MAX_BENCH_METHODS ? methods : [...methods, chosen] }
 }
 
 /** The compare body for the current settings (options that do not apply are left to the engine to drop). */

@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 import { QueryTypes } from 'sequelize'
 import { canonicalDecimal } from '../../shared/decimal-text'
-import { SIGNED_FORMAT, canonicalBytes, readWorkbookCells, signatureSheetField, signBytes, verifyWorkbookCells, writeSignedWorkbook, type Json, type Pair, type Person, type SignedContent } from '../lib/signing'
+import { SIGNED_FORMAT, canonicalBytes, contentSha256, readWorkbookCells, signatureSheetField, signBytes, verifyWorkbookCells, writeSignedWorkbook, type Json, type Pair, type Person, type SignedContent } from '../lib/signing'
 import { guardXlsxZip } from '../lib/import/zip-guard'
 import { ImportRefused } from '../lib/import/limits'
 import type { OrgAccess } from '../utils/auth'
@@ -101,16 +101,22 @@ function summary(c: SignedContent): NonNullable<ExportVerdictDto['signed']> {
 }
 
 /**
- * The table's current signed-off version as a production system reads it: the same content object an export signs, its
- * Ed25519 signature over the RFC 8785 canonical bytes, and the key id (public keys: /api/keys/<org>.json). 404 when the
- * table has no signed-off version.
+ * A signed-off version as a production system reads it: the same content object an export signs, its Ed25519 signature
+ * over the RFC 8785 canonical bytes, and the key id (public keys: /api/keys/<org>.json). Without a number, the version in
+ * force; with one, that version if it was ever signed off (in force or since superseded). 404 otherwise.
+ * `tag` is the SHA-256 of that content without its signing time (so it covers the key id, the version's state and the
+ * table's details): a caller that already holds it (If-None-Match) gets `null` instead of a new payload.
  */
-export async function signedOffPayload(event: H3Event, org: OrgRef, tableId: string): Promise<{ content: SignedContent, signature: string, keyId: string }> {
+export async function signedOffPayload(event: H3Event, org: OrgRef, tableId: string, options: { number?: number, holds?: string } = {}):
+Promise<{ tag: string, payload: { content: SignedContent, signature: string, keyId: string } | null }> {
   if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('table')
-  const [row] = await useDb().query<{ number: number }>(`SELECT number FROM table_versions WHERE org_id = :orgId AND table_id = :tableId AND status = 'approved'`,
-    { replacements: { orgId: org.id, tableId }, type: QueryTypes.SELECT })
-  if (!row) notFound('signed-off version')
+  const [row] = await useDb().query<{ number: number }>(`SELECT number FROM table_versions WHERE org_id = :orgId AND table_id = :tableId
+    AND ${options.number === undefined ? 'status = \'approved\'' : 'number = :number AND status IN (\'approved\', \'retired\')'}`,
+  { replacements: { orgId: org.id, tableId, number: options.number ?? null }, type: QueryTypes.SELECT })
+  if (!row) notFound(options.number === undefined ? 'signed-off version' : `signed-off version ${options.number}`)
   const key = await activeSigningKey(event, org.id)
   const content = await signedContent(org, tableId, row.number, key.kid)
-  return { content, signature: signBytes(canonicalBytes(content), key.privateKey), keyId: key.kid }
+  const tag = `W/"${contentSha256({ ...content, signedAt: '' })}"`
+  if (options.holds?.split(',').map(t => t.trim()).includes(tag)) return { tag, payload: null }
+  return { tag, payload: { content, signature: signBytes(canonicalBytes(content), key.privateKey), keyId: key.kid } }
 }

@@ -15,22 +15,36 @@ const toDto = (r: Row): ReadTokenDto => ({
   createdAt: new Date(r.created_at as string).toISOString(),
   lastUsedAt: r.last_used_at ? new Date(r.last_used_at as string).toISOString() : null,
   revokedAt: r.revoked_at ? new Date(r.revoked_at as string).toISOString() : null,
+  tables: (r.tables as { id: string, name: string }[] | null) ?? null,
 })
 
 export async function listReadTokens(orgId: string): Promise<ReadTokenDto[]> {
-  const rows = await useDb().query<Row>(`SELECT t.*, u.name AS created_by_name FROM read_tokens t LEFT JOIN users u ON u.id = t.created_by
+  const rows = await useDb().query<Row>(`SELECT t.*, u.name AS created_by_name,
+      (SELECT json_agg(json_build_object('id', rt.id, 'name', rt.name) ORDER BY rt.name) FROM rate_tables rt WHERE rt.id = ANY(t.table_ids)) AS tables
+    FROM read_tokens t LEFT JOIN users u ON u.id = t.created_by
     WHERE t.org_id = :orgId ORDER BY t.revoked_at IS NOT NULL, t.created_at DESC`, { replacements: { orgId }, type: QueryTypes.SELECT })
   return rows.map(toDto)
 }
 
-/** A new token: 32 random bytes, base64url, with a prefix that says what it is. Returned once, stored as its SHA-256. */
-export async function createReadToken(event: H3Event, access: OrgAccess, name: string): Promise<{ token: string, readToken: ReadTokenDto }> {
+/**
+ * A new token: 32 random bytes, base64url, with a prefix that says what it is. Returned once, stored as its SHA-256.
+ * `tables` limits it to those tables (each must be this organisation's); without it, it reads every signed-off table.
+ */
+export async function createReadToken(event: H3Event, access: OrgAccess, name: string, tables?: string[]): Promise<{ token: string, readToken: ReadTokenDto }> {
   const token = `${PREFIX}${randomBytes(32).toString('base64url')}`
   const hint = `${token.slice(0, 8)}…${token.slice(-4)}`
   const id = await inTransaction(async (t) => {
-    const [row] = await useDb().query<{ id: string }>(`INSERT INTO read_tokens (org_id, name, token_hash, hint, created_by) VALUES (:orgId, :name, :hash, :hint, :userId) RETURNING id`,
-      { replacements: { orgId: access.org.id, name, hash: hashOf(token), hint, userId: access.user.id }, type: QueryTypes.SELECT, transaction: t })
-    await audit(event, { orgId: access.org.id, action: 'read-token.create', objectType: 'read_token', objectId: row!.id, detail: { name, hint } }, t)
+    const ids = tables ? [...new Set(tables)] : null
+    const named = ids
+      ? await useDb().query<{ id: string, name: string }>('SELECT id, name FROM rate_tables WHERE org_id = :orgId AND id IN (:ids) ORDER BY name',
+        { replacements: { orgId: access.org.id, ids }, type: QueryTypes.SELECT, transaction: t })
+      : null
+    if (ids && named!.length !== ids.length) throw createError({ statusCode: 400, statusMessage: 'A chosen table is not one of this organisation\'s tables.' })
+    const [row] = await useDb().query<{ id: string }>(`INSERT INTO read_tokens (org_id, name, token_hash, hint, created_by, table_ids)
+      VALUES (:orgId, :name, :hash, :hint, :userId, ${ids ? 'ARRAY[:ids]::uuid[]' : 'NULL'}) RETURNING id`,
+    { replacements: { orgId: access.org.id, name, hash: hashOf(token), hint, userId: access.user.id, ids }, type: QueryTypes.SELECT, transaction: t })
+    await audit(event, { orgId: access.org.id, action: 'read-token.create', objectType: 'read_token', objectId: row!.id,
+      detail: { name, hint, tables: named ? named.map(n => n.name) : 'every signed-off table' } }, t)
     return row!.id
   })
   const readToken = (await listReadTokens(access.org.id)).find(r => r.id === id)!
@@ -46,7 +60,13 @@ export async function revokeReadToken(event: H3Event, access: OrgAccess, id: str
   })
 }
 
-export interface ReadAccess { tokenId: string, tokenName: string, org: { id: string, slug: string, name: string } }
+export interface ReadAccess {
+  tokenId: string
+  tokenName: string
+  org: { id: string, slug: string, name: string }
+  /** The tables the token may read, or null for all of the organisation's. */
+  tableIds: string[] | null
+}
 
 /** The organisation a bearer token reads, or 401 (missing, unknown and revoked tokens answer alike). */
 export async function requireReadToken(event: H3Event): Promise<ReadAccess> {
@@ -55,11 +75,12 @@ export async function requireReadToken(event: H3Event): Promise<ReadAccess> {
   const [row] = token.startsWith(PREFIX)
     ? await useDb().query<Row>(`UPDATE read_tokens r SET last_used_at = now() FROM organisations o
         WHERE r.token_hash = :hash AND r.revoked_at IS NULL AND o.id = r.org_id
-        RETURNING r.id, r.name, o.id AS org_id, o.slug, o.name AS org_name`, { replacements: { hash: hashOf(token) }, type: QueryTypes.SELECT })
+        RETURNING r.id, r.name, r.table_ids::text[] AS table_ids, o.id AS org_id, o.slug, o.name AS org_name`, { replacements: { hash: hashOf(token) }, type: QueryTypes.SELECT })
     : []
   if (!row) {
     setResponseHeader(event, 'www-authenticate', 'Bearer realm="knotwork"')
     throw createError({ statusCode: 401, statusMessage: 'A valid read token is needed: send "Authorization: Bearer <token>". An administrator creates tokens on the members page.' })
   }
-  return { tokenId: row.id as string, tokenName: row.name as string, org: { id: row.org_id as string, slug: row.slug as string, name: row.org_name as string } }
+  return { tokenId: row.id as string, tokenName: row.name as string, org: { id: row.org_id as string, slug: row.slug as string, name: row.org_name as string },
+    tableIds: (row.table_ids as string[] | null) ?? null }
 }

@@ -8,6 +8,8 @@ export interface ReadTokenDto {
   createdAt: string
   lastUsedAt: string | null
   revokedAt: string | null
+  /** The tables it may read, or null for every table with a signed-off version. */
+  tables: { id: string, name: string }[] | null
 }
 
 /** A signed-off table as a production system lists it. */

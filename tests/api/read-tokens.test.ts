@@ -4,13 +4,14 @@ import { createPublicKey, verify } from 'node:crypto'
 import canonicalize from 'canonicalize'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { BASE, Client, DEMO, FENWICK, LARKSPUR, closeOwnerDb, count, signedIn } from './helpers'
+import { filledDraft, newTable } from './review-helpers'
 
 afterAll(closeOwnerDb)
 let admin: Client
 let token: string
 let tokenId: string
 
-const read = (path: string, bearer = token) => fetch(`${BASE}${path}`, { headers: { authorization: `Bearer ${bearer}`, accept: 'application/json' } })
+const read = (path: string, bearer = token, headers: Record<string, string> = {}) => fetch(`${BASE}${path}`, { headers: { authorization: `Bearer ${bearer}`, accept: 'application/json', ...headers } })
 
 beforeAll(async () => {
   admin = await signedIn(DEMO.admin)
@@ -70,6 +71,72 @@ describe('the read API', () => {
     const ours = await admin.get<{ id: string, name: string }[]>(`/api/orgs/${LARKSPUR}/tables`)
     const draftOnly = ours.body.find(t => t.name === 'Lapse rates, regular premium savings')!
     expect((await read(`/api/v1/tables/${draftOnly.id}`)).status).toBe(404)
+  })
+
+  it('reads an earlier signed-off version by number, and nothing that was never signed off', async () => {
+    const analyst = await signedIn(DEMO.analyst)
+    const felix = await signedIn(DEMO.both)
+    const tableId = await newTable(LARKSPUR, DEMO.analyst)
+    const base = (n: number) => `/api/orgs/${LARKSPUR}/tables/${tableId}/versions/${n}`
+    for (const bump of ['0', '0.002']) {
+      const v = await filledDraft(tableId, DEMO.analyst, bump)
+      expect((await analyst.post(`${base(v.number)}/submit`, {})).status).toBe(200)
+      expect((await felix.post(`${base(v.number)}/approve`, {})).status).toBe(200)
+    }
+    const draft = await filledDraft(tableId, DEMO.analyst)
+    type Body = { content: { version: { number: number, status: string }, points: [string, string][] } }
+    const now = await (await read(`/api/v1/tables/${tableId}`)).json() as Body
+    expect(now.content.version).toMatchObject({ number: 2, status: 'approved' })
+    const then = await read(`/api/v1/tables/${tableId}?version=1`)
+    expect(then.status).toBe(200)
+    const old = await then.json() as Body
+    expect(old.content.version).toMatchObject({ number: 1, status: 'retired' })
+    expect(old.content.points[0]).toEqual(['60', '0.01'])
+    expect((await read(`/api/v1/tables/${tableId}?version=${draft.number}`)).status).toBe(404)
+    expect((await read(`/api/v1/tables/${tableId}?version=99`)).status).toBe(404)
+    expect((await read(`/api/v1/tables/${tableId}?version=first`)).status).toBe(400)
+  })
+
+  it('answers 304 to a system that already holds the version (If-None-Match), without a new audit entry', async () => {
+    const tables = await (await read('/api/v1/tables')).json() as { id: string, name: string }[]
+    const curve = tables.find(t => t.name === 'Discount curve 2026-09-30')!
+    const first = await read(`/api/v1/tables/${curve.id}`)
+    const tag = first.headers.get('etag')!
+    expect(tag).toMatch(/^W\/"[0-9a-f]{64}"$/)
+    const reads = () => count(`SELECT 1 FROM audit_events WHERE action = 'read-token.read' AND detail->>'token' = 'Valuation system'`)
+    const before = await reads()
+    const again = await read(`/api/v1/tables/${curve.id}`, token, { 'if-none-match': tag })
+    expect(again.status).toBe(304)
+    expect(await again.text()).toBe('')
+    expect(await reads()).toBe(before)
+    expect((await read(`/api/v1/tables/${curve.id}`, token, { 'if-none-match': 'W/"something-else"' })).status).toBe(200)
+    expect(await reads()).toBe(before + 1)
+  })
+
+  it('a token limited to some tables lists and reads only those; other tables answer 404', async () => {
+    const ours = await admin.get<{ id: string, name: string }[]>(`/api/orgs/${LARKSPUR}/tables`)
+    const curve = ours.body.find(t => t.name === 'Discount curve 2026-09-30')!
+    const female = ours.body.find(t => t.name === 'Pensioner mortality, female')!
+    const r = await admin.post<{ token: string, readToken: { tables: { id: string, name: string }[] | null } }>(`/api/orgs/${LARKSPUR}/read-tokens`, { name: 'Curve only', tables: [curve.id] })
+    expect(r.status).toBe(201)
+    expect(r.body.readToken.tables).toEqual([{ id: curve.id, name: curve.name }])
+    const list = await (await read('/api/v1/tables', r.body.token)).json() as { name: string }[]
+    expect(list.map(t => t.name)).toEqual(['Discount curve 2026-09-30'])
+    expect((await read(`/api/v1/tables/${curve.id}`, r.body.token)).status).toBe(200)
+    expect((await read(`/api/v1/tables/${curve.id.toUpperCase()}`, r.body.token)).status).toBe(200)
+    expect((await read(`/api/v1/tables/${female.id}`, r.body.token)).status).toBe(404)
+    expect((await read(`/api/v1/tables/${female.id}`)).status).toBe(200) // the unlimited token still reads it
+    expect(await count(`SELECT 1 FROM audit_events WHERE action = 'read-token.create' AND detail->>'name' = 'Curve only' AND detail->'tables' @> '["Discount curve 2026-09-30"]'::jsonb`)).toBe(1)
+  })
+
+  it('refuses a limit naming another organisation\'s table, or no table at all', async () => {
+    const fenwickAdmin = await signedIn(DEMO.otherAdmin)
+    const theirs = await fenwickAdmin.get<{ id: string }[]>(`/api/orgs/${FENWICK}/tables`)
+    const foreign = await admin.post<{ statusMessage: string }>(`/api/orgs/${LARKSPUR}/read-tokens`, { name: 'Sneaky', tables: [theirs.body[0]!.id] })
+    expect(foreign.status).toBe(400)
+    expect(foreign.body.statusMessage).toContain('not one of this organisation')
+    expect((await admin.post(`/api/orgs/${LARKSPUR}/read-tokens`, { name: 'Empty', tables: [] })).status).toBe(400)
+    expect(await count(`SELECT 1 FROM read_tokens WHERE name IN ('Sneaky', 'Empty')`)).toBe(0)
   })
 
   it('stops answering a revoked token at once', async () => {

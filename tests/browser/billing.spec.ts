@@ -72,18 +72,26 @@ test('the admin raises seats from 5 to 8, sees the proration invoice, invites an
   await shot(page, 'members-after-accept')
 })
 
-test('the admin creates a read token for a production system, sees it once, and revokes it', async ({ page }) => {
+test('the admin creates a read token limited to one table, sees it once, and revokes it', async ({ page }) => {
   await signIn(page, PEOPLE.admin)
   await page.goto('/orgs/larkspur-mutual/members')
   const panel = page.getByTestId('read-tokens')
   await panel.getByTestId('read-token-create').click()
   await expect(panel.getByText('Name the token after the system')).toBeVisible()
   await panel.getByLabel('System').fill('Pricing model (browser test)')
+  // limited to one table: none ticked is refused, the curve ticked is what the system then sees
+  await panel.getByTestId('read-token-scope-some').check()
+  await panel.getByTestId('read-token-create').click()
+  await expect(panel.getByText('Pick at least one table')).toBeVisible()
+  await panel.getByTestId('read-token-tables').getByLabel('Discount curve 2026-09-30').check()
+  await shot(page, 'read-token-scope')
   await panel.getByTestId('read-token-create').click()
   const value = await panel.getByTestId('read-token-value').textContent()
   expect(value).toMatch(/^kwr_/)
+  await expect(panel.locator('tr[data-token-name="Pricing model (browser test)"]').getByTestId('read-token-reads')).toHaveText('Discount curve 2026-09-30')
   const list = await page.request.get('/api/v1/tables', { headers: { authorization: `Bearer ${value}` } })
   expect(list.status()).toBe(200)
+  expect((await list.json() as { name: string }[]).map(t => t.name)).toEqual(['Discount curve 2026-09-30'])
   await shot(page, 'read-token-created')
   await panel.getByTestId('read-token-revoke-Pricing model (browser test)').click()
   await panel.getByTestId('read-token-revoke-confirm-Pricing model (browser test)').click()

@@ -63,6 +63,9 @@ test('a signed-off curve can be compared, with forward rates, but takes no fill'
   await waitForRun(page)
   await expect(page.getByTestId('chart-forwards')).toBeVisible()
   await expect(page.getByTestId('check-forwards')).toBeVisible()
+  // the chosen fill (monotone cubic in the demo) is compared beside the usual three
+  await expect(page.getByTestId('saved-fill')).toContainText('Chosen fill: Monotone cubic (PCHIP)')
+  await expect(page.getByTestId('check-zigzag').locator('td[data-method="Monotone cubic (PCHIP)"]')).toBeVisible()
   await expect(page.getByTestId('bench-choose')).toContainText('takes no fill')
   await expect(page.getByTestId('bench-grid')).toContainText('358 rows')
   await shot(page, 'bench-curve')

@@ -61,36 +61,75 @@ function trimRow(row: (string | null)[]) {
   return row
 }
 
-async function readXlsx(buf: Buffer): Promise<StoredSheet[]> {
-  await guardXlsxZip(buf)
+/** The rows of one sheet into a StoredSheet, with the row and column caps and formula cells noted. */
+async function storeSheet(name: string, rows: AsyncIterable<ExcelJS.Row> | Iterable<ExcelJS.Row>): Promise<StoredSheet> {
+  const stored: StoredSheet = { name, rows: [], formulas: [], colCount: 0 }
+  for await (const row of rows) {
+    const r = row.number - 1
+    if (r >= L.rows + 1) throw new ImportRefused(413, `Sheet '${name}' has more than ${L.rows.toLocaleString('en-GB')} rows; split the file or remove unused rows.`)
+    const out: (string | null)[] = []
+    row.eachCell({ includeEmpty: false }, (cell, col) => {
+      if (col > L.columns) throw new ImportRefused(413, `Sheet '${name}' uses more than ${L.columns} columns; remove unused columns.`)
+      const { text, formula } = cellText(cell.value, cell.numFmt)
+      if (formula) stored.formulas.push(`${r}:${col - 1}`)
+      out[col - 1] = text
+    })
+    for (let i = 0; i < out.length; i++) out[i] ??= null
+    stored.rows[r] = trimRow(out)
+    stored.colCount = Math.max(stored.colCount, stored.rows[r]!.length)
+  }
+  for (let i = 0; i < stored.rows.length; i++) stored.rows[i] ??= []
+  return stored
+}
+
+/** Whole workbook in memory (JSZip): deterministic; used up to IN_MEMORY_BYTES of inflated parts. */
+async function readInMemory(buf: Buffer): Promise<StoredSheet[]> {
+  const wb = new ExcelJS.Workbook()
+  await wb.xlsx.load(buf as unknown as ArrayBuffer)
+  const sheets: StoredSheet[] = []
+  for (const ws of wb.worksheets) {
+    const rows: ExcelJS.Row[] = []
+    ws.eachRow({ includeEmpty: false }, row => rows.push(row))
+    sheets.push(await storeSheet(ws.name, rows))
+  }
+  return sheets
+}
+
+/** Sheet by sheet, row by row (exceljs's streaming reader): bounded memory for large workbooks. */
+async function readStreaming(buf: Buffer): Promise<StoredSheet[]> {
   const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(buf), {
     sharedStrings: 'cache', hyperlinks: 'ignore', styles: 'cache', worksheets: 'emit', entries: 'emit',
   })
   const sheets: StoredSheet[] = []
-  try {
-    for await (const ws of reader) {
-      const sheet = ws as unknown as { name: string } & AsyncIterable<ExcelJS.Row>
-      const stored: StoredSheet = { name: sheet.name, rows: [], formulas: [], colCount: 0 }
-      for await (const row of sheet) {
-        const r = row.number - 1
-        if (r >= L.rows + 1) throw new ImportRefused(413, `Sheet '${sheet.name}' has more than ${L.rows.toLocaleString('en-GB')} rows; split the file or remove unused rows.`)
-        const out: (string | null)[] = []
-        row.eachCell({ includeEmpty: false }, (cell, col) => {
-          if (col > L.columns) throw new ImportRefused(413, `Sheet '${sheet.name}' uses more than ${L.columns} columns; remove unused columns.`)
-          const { text, formula } = cellText(cell.value, cell.numFmt)
-          if (formula) stored.formulas.push(`${r}:${col - 1}`)
-          out[col - 1] = text
-        })
-        for (let i = 0; i < out.length; i++) out[i] ??= null
-        stored.rows[r] = trimRow(out)
-        stored.colCount = Math.max(stored.colCount, stored.rows[r]!.length)
+  for await (const ws of reader) {
+    const sheet = ws as unknown as { name: string } & AsyncIterable<ExcelJS.Row>
+    sheets.push(await storeSheet(sheet.name, sheet))
+  }
+  return sheets
+}
+
+/**
+ * Workbooks up to this many inflated bytes are read whole in memory. exceljs 4.4's streaming reader now and then loses
+ * the end of a part when its worksheets come before xl/workbook.xml in the zip (seen about once in 400 uploads of the
+ * demo workbook: "Cannot read properties of undefined (reading 'sheets')", the TypeError of exceljs issue #962, still
+ * open), so it is kept for large workbooks only, and tried up to three times there.
+ */
+const IN_MEMORY_BYTES = 8 * 1024 * 1024
+const STREAMING_TRIES = 3
+
+async function readXlsx(buf: Buffer): Promise<StoredSheet[]> {
+  const { inflatedBytes } = await guardXlsxZip(buf)
+  let sheets: StoredSheet[] | null = null
+  for (let attempt = 1; !sheets; attempt++) {
+    try {
+      sheets = inflatedBytes <= IN_MEMORY_BYTES ? await readInMemory(buf) : await readStreaming(buf)
+    } catch (e) {
+      if (e instanceof ImportRefused) throw e
+      console.warn(`[import] xlsx read failed (${inflatedBytes} inflated bytes, attempt ${attempt}):`, (e as Error)?.stack ?? e)
+      if (inflatedBytes <= IN_MEMORY_BYTES || attempt >= STREAMING_TRIES) {
+        throw new ImportRefused(400, 'The workbook could not be read. Save it again as .xlsx from your spreadsheet program and retry.')
       }
-      for (let i = 0; i < stored.rows.length; i++) stored.rows[i] ??= []
-      sheets.push(stored)
     }
-  } catch (e) {
-    if (e instanceof ImportRefused) throw e
-    throw new ImportRefused(400, 'The workbook could not be read. Save it again as .xlsx from your spreadsheet program and retry.')
   }
   if (!sheets.length) throw new ImportRefused(400, 'The workbook has no sheets.')
   return sheets

@@ -25,7 +25,7 @@ function listEntries(zip: ZipFile): Promise<Entry[]> {
   })
 }
 
-function checkDeclared(entries: Entry[]) {
+function checkDeclared(entries: Entry[]): number {
   let total = 0
   for (const e of entries) {
     if (e.isEncrypted()) throw new ImportRefused(422, 'The workbook is encrypted. Remove the password in your spreadsheet program and retry.')
@@ -37,6 +37,7 @@ function checkDeclared(entries: Entry[]) {
     }
   }
   if (total > L.totalInflatedBytes) throw new ImportRefused(413, `The workbook would inflate to more than ${L.totalInflatedBytes / 1048576} MiB; Knotwork refuses it.`)
+  return total
 }
 
 const DOCTYPE = Buffer.from('<!doctype')
@@ -90,17 +91,18 @@ function scanEntry(zip: ZipFile, entry: Entry): Promise<void> {
  * declared sizes, compression ratio, encryption), then each XML part inflated with a running
  * counter (actual size never above the declared size), DOCTYPE/ENTITY refused, sheet rows capped.
  */
-export async function guardXlsxZip(buf: Buffer): Promise<void> {
+export async function guardXlsxZip(buf: Buffer): Promise<{ inflatedBytes: number }> {
   const zip = await open(buf)
   try {
     const entries = await listEntries(zip)
-    checkDeclared(entries)
+    const inflatedBytes = checkDeclared(entries)
     if (!entries.some(e => e.fileName === 'xl/workbook.xml')) {
       throw new ImportRefused(415, 'The zip is not an Excel workbook (.xlsx): it has no workbook part.')
     }
     for (const entry of entries) {
       if (/\.(xml|rels|vml)$/i.test(entry.fileName)) await scanEntry(zip, entry)
     }
+    return { inflatedBytes }
   } finally {
     zip.close()
   }
