@@ -83,7 +83,7 @@ async function storeSheet(name: string, rows: AsyncIterable<ExcelJS.Row> | Itera
 }
 
 /** Whole workbook in memory (JSZip): deterministic; used up to IN_MEMORY_BYTES of inflated parts. */
-async function readInMemory(buf: Buffer): Promise<StoredSheet[]> {
+export async function readInMemory(buf: Buffer): Promise<StoredSheet[]> {
   const wb = new ExcelJS.Workbook()
   await wb.xlsx.load(buf as unknown as ArrayBuffer)
   const sheets: StoredSheet[] = []
@@ -96,7 +96,7 @@ async function readInMemory(buf: Buffer): Promise<StoredSheet[]> {
 }
 
 /** Sheet by sheet, row by row (exceljs's streaming reader): bounded memory for large workbooks. */
-async function readStreaming(buf: Buffer): Promise<StoredSheet[]> {
+export async function readStreaming(buf: Buffer): Promise<StoredSheet[]> {
   const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(buf), {
     sharedStrings: 'cache', hyperlinks: 'ignore', styles: 'cache', worksheets: 'emit', entries: 'emit',
   })
