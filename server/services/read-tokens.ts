@@ -68,18 +68,35 @@ export interface ReadAccess {
   tableIds: string[] | null
 }
 
-/** The organisation a bearer token reads, or 401 (missing, unknown and revoked tokens answer alike). */
+/** Requests per token per clock minute; more answer 429 until the minute ends. */
+export const READ_REQUESTS_PER_MINUTE = 300
+
+/**
+ * The organisation a bearer token reads, or 401 (missing, unknown and revoked tokens answer alike). Each request is
+ * counted against the token's minute in the same UPDATE; beyond READ_REQUESTS_PER_MINUTE it answers 429 with
+ * Retry-After.
+ */
 export async function requireReadToken(event: H3Event): Promise<ReadAccess> {
   const header = getRequestHeader(event, 'authorization') ?? ''
   const token = /^Bearer\s+(\S+)$/i.exec(header)?.[1] ?? ''
   const [row] = token.startsWith(PREFIX)
-    ? await useDb().query<Row>(`UPDATE read_tokens r SET last_used_at = now() FROM organisations o
+    ? await useDb().query<Row>(`UPDATE read_tokens r SET last_used_at = now(),
+          window_count = CASE WHEN r.window_start = date_trunc('minute', now()) THEN r.window_count + 1 ELSE 1 END,
+          window_start = date_trunc('minute', now())
+        FROM organisations o
         WHERE r.token_hash = :hash AND r.revoked_at IS NULL AND o.id = r.org_id
-        RETURNING r.id, r.name, r.table_ids::text[] AS table_ids, o.id AS org_id, o.slug, o.name AS org_name`, { replacements: { hash: hashOf(token) }, type: QueryTypes.SELECT })
+        RETURNING r.id, r.name, r.table_ids::text[] AS table_ids, r.window_count,
+          ceil(extract(epoch FROM date_trunc('minute', now()) + interval '1 minute' - now()))::int AS window_left,
+          o.id AS org_id, o.slug, o.name AS org_name`, { replacements: { hash: hashOf(token) }, type: QueryTypes.SELECT })
     : []
   if (!row) {
     setResponseHeader(event, 'www-authenticate', 'Bearer realm="knotwork"')
     throw createError({ statusCode: 401, statusMessage: 'A valid read token is needed: send "Authorization: Bearer <token>". An administrator creates tokens on the members page.' })
+  }
+  if ((row.window_count as number) > READ_REQUESTS_PER_MINUTE) {
+    const wait = Math.max(1, row.window_left as number)
+    setResponseHeader(event, 'retry-after', String(wait))
+    throw createError({ statusCode: 429, statusMessage: `This token has made more than ${READ_REQUESTS_PER_MINUTE} requests this minute; retry in ${wait} s (a 304 answer counts too).` })
   }
   return { tokenId: row.id as string, tokenName: row.name as string, org: { id: row.org_id as string, slug: row.slug as string, name: row.org_name as string },
     tableIds: (row.table_ids as string[] | null) ?? null }

@@ -139,6 +139,22 @@ describe('the read API', () => {
     expect(await count(`SELECT 1 FROM read_tokens WHERE name IN ('Sneaky', 'Empty')`)).toBe(0)
   })
 
+  it('answers 429 with Retry-After once a token passes its requests per minute; other tokens go on', async () => {
+    const r = await admin.post<{ token: string }>(`/api/orgs/${LARKSPUR}/read-tokens`, { name: 'Stuck in a loop' })
+    // 300 a minute: 601 requests make at least one clock minute go over, even if they straddle two minutes
+    let refused: Response | null = null
+    for (let sent = 0; sent < 601 && !refused; sent += 10) {
+      const batch = await Promise.all(Array.from({ length: 10 }, () => read('/api/v1/tables', r.body.token)))
+      refused = batch.find(b => b.status === 429) ?? null
+      expect(batch.every(b => b.status === 200 || b.status === 429)).toBe(true)
+    }
+    expect(refused).not.toBeNull()
+    expect(Number(refused!.headers.get('retry-after'))).toBeGreaterThanOrEqual(1)
+    expect(Number(refused!.headers.get('retry-after'))).toBeLessThanOrEqual(60)
+    expect((await refused!.json() as { statusMessage: string }).statusMessage).toContain('more than 300 requests this minute')
+    expect((await read('/api/v1/tables')).status).toBe(200)
+  })
+
   it('stops answering a revoked token at once', async () => {
     const r = await admin.post<{ token: string, readToken: { id: string } }>(`/api/orgs/${LARKSPUR}/read-tokens`, { name: 'Short-lived' })
     expect((await read('/api/v1/tables', r.body.token)).status).toBe(200)
