@@ -1,8 +1,9 @@
 // One way to write dates everywhere: day first with the month as a word ("2 Dec 2026"), never 02/12/2026,
 // which reads as February in some places. Times are the viewer's local time; instants (audit, signatures) carry the zone.
 
-export function formatDay(iso: string): string {
-  return new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' })
+/** "2 Dec 2026"; a missing date is a dash. */
+export function formatDay(iso: string | null | undefined): string {
+  return iso ? new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' }) : '—'
 }
 
 export function formatWhen(iso: string | null | undefined): string {

@@ -95,7 +95,7 @@ export async function requireReadToken(event: H3Event): Promise<ReadAccess> {
   }
   if ((row.window_count as number) > READ_REQUESTS_PER_MINUTE) {
     const wait = Math.max(1, row.window_left as number)
-    setResponseHeader(event, 'retry-after', String(wait))
+    setResponseHeader(event, 'retry-after', wait)
     throw createError({ statusCode: 429, statusMessage: `This token has made more than ${READ_REQUESTS_PER_MINUTE} requests this minute; retry in ${wait} s (a 304 answer counts too).` })
   }
   return { tokenId: row.id as string, tokenName: row.name as string, org: { id: row.org_id as string, slug: row.slug as string, name: row.org_name as string },
