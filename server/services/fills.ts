@@ -46,8 +46,9 @@ export async function runCompare(access: OrgAccess, tableId: string, number: num
     const specs = input.methods.map((m, i) => ({ method: m.method, options: m.options ?? {}, transform: requests[i]!.transform, ...(m.label ? { label: m.label } : {}) }))
     // between methods: let other requests run, and stop if the person cancelled (the connection is gone)
     let resumed = performance.now()
-    result = await compareAsync(requests[0]!, specs, input.baseline ? { baseline: input.baseline } : {}, async (filled) => {
+    result = await compareAsync(requests[0]!, specs, input.baseline ? { baseline: input.baseline } : {}, async (filled, of) => {
       report(filled)
+      if (filled === of) return // the last method: only the pairwise differences are left, no one to make room for
       // a slice of 5 % of the method's time (2 to 25 ms), so waiting requests, including this run's progress request with
       // its session and role checks in the database, get through; a single event-loop turn is not enough for that
       const slice = Math.min(25, Math.max(2, (performance.now() - resumed) * 0.05))

@@ -92,4 +92,5 @@ test('an auditor sees the signing keys but cannot replace them', async ({ page }
   await page.goto('/orgs/larkspur-mutual/verify')
   await expect(page.getByTestId('signing-keys').getByRole('heading', { name: 'Signing keys' })).toBeVisible()
   await expect(page.getByTestId('rotate-key')).toHaveCount(0)
+  await shot(page, 'signing-keys-auditor')
 })

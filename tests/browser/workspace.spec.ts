@@ -55,6 +55,11 @@ test('an actuary compares three methods, moves the quadratic condition, and choo
   await expect(page.getByTestId('saved-fill')).toContainText('Natural cubic spline')
   await expect(page.getByTestId('open-bench')).toBeVisible()
   await shot(page, 'table-with-fill')
+  // back on the bench, the chosen fill's settings are where the comparison starts
+  await page.getByTestId('open-bench').click()
+  await waitForRun(page)
+  await expect(page.getByTestId('saved-fill')).toContainText('Natural cubic spline')
+  await shot(page, 'bench-reopened')
 })
 
 test('a signed-off curve can be compared, with forward rates, but takes no fill', async ({ page }) => {
