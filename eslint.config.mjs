@@ -27,4 +27,19 @@ export default tseslint.config(
       'vue/multiline-html-element-content-newline': 'off',
     },
   },
+  {
+    // Every refusal carries a machine-readable code: the server throws apiError (server/utils/api-error.ts), never createError.
+    // Imports climb no more than two folders: use Nuxt's aliases (#shared/..., ~~/server/...).
+    files: ['server/**/*.ts'],
+    ignores: ['server/utils/api-error.ts'],
+    rules: {
+      'no-restricted-syntax': ['error', { selector: "CallExpression[callee.name='createError']", message: 'Throw apiError(status, code, message) so the answer carries data.code.' }],
+    },
+  },
+  {
+    files: ['**/*.ts', '**/*.vue'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: [{ regex: '^(\\.\\./){3,}', message: 'Use an alias (#shared/..., ~~/server/...) instead of climbing folders.' }] }],
+    },
+  },
 )

@@ -1,12 +1,17 @@
+import { fileURLToPath } from 'node:url'
 import { defineConfig } from 'vitest/config'
+
+const root = fileURLToPath(new URL('.', import.meta.url))
 
 // unit: engine and pure code. api: handlers against the built server and a real PostgreSQL
 // (scripts/test.sh starts both and sets KW_BASE_URL / KW_DATABASE_OWNER_URL).
+// The aliases are Nuxt's own (#shared, ~~), so tests import code the way the app does.
 export default defineConfig({
+  resolve: { alias: { '#shared': `${root}shared`, '~~': root.replace(/\/$/, '') } },
   test: {
     projects: [
-      { test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', testTimeout: 60_000 } },
-      { test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 60_000, hookTimeout: 60_000, fileParallelism: false } },
+      { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', testTimeout: 60_000 } },
+      { extends: true, test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 60_000, hookTimeout: 60_000, fileParallelism: false } },
     ],
   },
 })

@@ -1,4 +1,4 @@
-import type { Diagnostics, Span } from '~~/shared/types/fills'
+import type { Diagnostics, Span } from '#shared/types/fills'
 
 export interface CheckRow { id: string, name: string, meaning: string, verdict: (d: Diagnostics) => { good: boolean, text: string } }
 

@@ -1,4 +1,4 @@
-import type { CompareResponseDto } from '~~/shared/types/fills'
+import type { CompareResponseDto } from '#shared/types/fills'
 
 export interface ChartSeries { name: string, points: [number, number][] }
 

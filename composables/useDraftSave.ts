@@ -1,7 +1,7 @@
-import { fromPerUnit, parseNumberText, toPerUnit } from '~~/shared/decimal-text'
-import { savePointsSchema } from '~~/shared/schemas/tables'
-import type { ValueUnit } from '~~/shared/tables'
-import type { VersionDto } from '~~/shared/types/tables'
+import { fromPerUnit, parseNumberText, toPerUnit } from '#shared/decimal-text'
+import { savePointsSchema } from '#shared/schemas/tables'
+import type { ValueUnit } from '#shared/tables'
+import type { VersionDto } from '#shared/types/tables'
 import type { GridRow } from './usePointsGrid'
 
 /** Grid rows <-> stored points, and saving a draft under its optimistic lock. */
@@ -42,8 +42,7 @@ export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
       saved.value = `Saved at ${new Date().toLocaleTimeString('en-GB')}.`
       return v
     } catch (e) {
-      const status = (e as { status?: number }).status
-      conflict.value = status === 409 && /saved this draft/.test(apiErrorMessage(e))
+      conflict.value = apiErrorCode(e) === 'draft-conflict'
       failure.value = apiErrorMessage(e)
       return null
     } finally { saving.value = false }

@@ -1,15 +1,16 @@
-import { DEFAULT_BENCH_METHODS, MAX_BENCH_METHODS, type FillExtrapolation, type FillMethodId, type FillTransformId } from '~~/shared/fills'
-import type { CompareInput, MethodChoice } from '~~/shared/schemas/fills'
-import type { CompareResponseDto, MethodListing, StoredFillSpec } from '~~/shared/types/fills'
-import type { Axis, TableKind } from '~~/shared/tables'
+import type { ExtrapolationRule, MethodId, TransformId } from '#shared/engine/contract'
+import { DEFAULT_BENCH_METHODS, MAX_BENCH_METHODS } from '#shared/fills'
+import type { CompareInput, MethodChoice } from '#shared/schemas/fills'
+import type { CompareResponseDto, MethodListing, StoredFillSpec } from '#shared/types/fills'
+import type { Axis, TableKind } from '#shared/tables'
 
 /** One method on the bench, with its option values as the form holds them. */
-export interface BenchMethod { key: number, method: FillMethodId, options: Record<string, string> }
+export interface BenchMethod { key: number, method: MethodId, options: Record<string, string> }
 
 export interface BenchSettings {
   grid: { from: string, to: string, step: string }
-  transform: FillTransformId
-  extrapolation: FillExtrapolation
+  transform: TransformId
+  extrapolation: ExtrapolationRule
   ages: string
   interest: string
 }
@@ -131,10 +132,9 @@ export function useCompareRun(url: () => string) {
     }
     catch (e) {
       if (id !== started.value) return // a newer run replaced this one
-      const failure = e as { name?: string, data?: { statusMessage?: string }, statusMessage?: string }
-      error.value = failure.name === 'AbortError' || controller?.signal.aborted
+      error.value = (e as { name?: string }).name === 'AbortError' || controller?.signal.aborted
         ? 'Comparison cancelled; the previous results (if any) stay on screen.'
-        : failure.data?.statusMessage ?? failure.statusMessage ?? 'The comparison failed.'
+        : apiErrorMessage(e, 'The comparison failed.')
     }
     finally {
       if (id === started.value) {

@@ -1,4 +1,4 @@
-import { can, type Permission } from '~~/shared/permissions'
+import { can, type Permission } from '#shared/permissions'
 
 /** The organisation in the current route, the caller's role in it, and a permission check. */
 export function useOrg() {

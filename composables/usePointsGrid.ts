@@ -1,6 +1,6 @@
 import { useForm } from 'vee-validate'
-import { canonicalDecimal, parseNumberText } from '~~/shared/decimal-text'
-import { pointEditSchema } from '~~/shared/schemas/tables'
+import { canonicalDecimal, parseNumberText } from '#shared/decimal-text'
+import { pointEditSchema } from '#shared/schemas/tables'
 
 export interface GridRow { x: string; y: string } // as shown: x in axis units, y in the table's value unit
 export type GridCol = 'x' | 'y'

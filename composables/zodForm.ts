@@ -20,9 +20,3 @@ export function zodFormSchema<S extends z.ZodType>(schema: S): TypedSchema<z.inp
     },
   }
 }
-
-/** The message a failed $fetch carries (statusMessage from createError). */
-export function apiErrorMessage(error: unknown, fallback = 'Something went wrong. Try again.'): string {
-  const e = error as { data?: { statusMessage?: string; message?: string; data?: { issues?: { message: string }[] } }; statusMessage?: string }
-  return e?.data?.data?.issues?.[0]?.message ?? e?.data?.statusMessage ?? e?.data?.message ?? e?.statusMessage ?? fallback
-}

@@ -1,4 +1,4 @@
-import { can, type Permission } from '~~/shared/permissions'
+import { can, type Permission } from '#shared/permissions'
 
 // Every page except those marked public needs a signed-in person; pages under
 // /orgs/[org] need a membership (404 otherwise) and may name a permission (403).

@@ -1,21 +1,18 @@
-// Choices of the fill bench that both the form and the server know. The engine (server/engine) is the authority:
-// server/services/fill-request.ts checks at compile time that these lists match its types.
-export const FILL_METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima'] as const
-export type FillMethodId = (typeof FILL_METHOD_IDS)[number]
-export const FILL_TRANSFORM_IDS = ['none', 'log', 'logit', 'cumulative-hazard', 'log-discount'] as const
-export type FillTransformId = (typeof FILL_TRANSFORM_IDS)[number]
-export const EXTRAPOLATION_RULES = ['error', 'flat', 'linear'] as const
-export type FillExtrapolation = (typeof EXTRAPOLATION_RULES)[number]
+// Choices of the fill bench that both the form and the server know. The vocabulary itself (method, transform and
+// extrapolation ids) is the engine's contract, shared/engine/contract.ts.
+import { EXTRAPOLATION_RULES, type ExtrapolationRule, type MethodId } from './engine/contract'
+
+export { EXTRAPOLATION_RULES }
 
 /** Our own words for the extrapolation rules. */
-export const EXTRAPOLATION_LABELS: Record<FillExtrapolation, string> = {
+export const EXTRAPOLATION_LABELS: Record<ExtrapolationRule, string> = {
   error: 'Refuse points outside the given range',
   flat: 'Hold the end value flat',
   linear: 'Extend the end piece as a straight line',
 }
 
 /** Preselected on the bench: the three methods whose contrast matters most. */
-export const DEFAULT_BENCH_METHODS: FillMethodId[] = ['linear', 'quadratic', 'cubic-natural']
+export const DEFAULT_BENCH_METHODS: MethodId[] = ['linear', 'quadratic', 'cubic-natural']
 export const MAX_BENCH_METHODS = 8
 export const MIN_RATIONALE = 20
 /** Most output points a bench grid may have (the engine allows more; the browser has to draw them). */

@@ -1,6 +1,7 @@
 // Table kinds, axes, units and version states, with the names Knotwork shows for them.
-export const TABLE_KINDS = ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other'] as const
-export type TableKind = (typeof TABLE_KINDS)[number]
+import { TABLE_KINDS, type TableKind } from './engine/contract'
+
+export { TABLE_KINDS, type TableKind }
 export const KIND_LABELS: Record<TableKind, string> = {
   'mortality': 'Mortality q_x',
   'lapse': 'Lapse rates',

@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia'
-import type { MeDto } from '~~/shared/types/api'
-import type { Role } from '~~/shared/permissions'
+import type { MeDto } from '#shared/types/api'
+import type { Role } from '#shared/permissions'
 
 // Who is signed in and their organisations: shared by the layout, the guards and every page.
 export const useWorkspaceStore = defineStore('workspace', () => {

@@ -7,6 +7,7 @@ import { cubicNotAKnot } from './methods/cubic-not-a-knot'
 import { linear } from './methods/linear'
 import { logLinear } from './methods/log-linear'
 import type { MethodDefinition } from './methods/method'
+import type { MethodListing } from './types'
 import { pchip } from './methods/pchip'
 import { quadratic } from './methods/quadratic'
 
@@ -24,8 +25,7 @@ const DEFINITIONS: MethodDefinition[] = [
 
 const BY_ID = new Map<string, MethodDefinition>(DEFINITIONS.map(d => [d.id, d]))
 
-/** What a client may show about a method: no functions, only data. */
-export type MethodListing = Pick<MethodDefinition, 'id' | 'label' | 'minPoints' | 'source' | 'summary' | 'options'>
+export type { MethodListing }
 
 export const METHODS: readonly MethodListing[] = DEFINITIONS.map(d => ({
   id: d.id,

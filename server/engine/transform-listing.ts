@@ -1,12 +1,7 @@
 import { TRANSFORMS } from './transforms'
-import type { TransformId } from './types'
+import type { TransformListing } from './types'
 
-export interface TransformListing {
-  id: TransformId
-  label: string
-  domain: string
-  description: string
-}
+export type { TransformListing }
 
 /** What a client may show about the transforms. */
 export const TRANSFORM_LISTING: readonly TransformListing[] = Object.values(TRANSFORMS).map(t => ({

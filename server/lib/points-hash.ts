@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto'
-import { canonicalDecimal, cmpDecimal } from '../../shared/decimal-text'
+import { canonicalDecimal, cmpDecimal } from '#shared/decimal-text'
 
 /**
  * Content hash of a version: SHA-256 (hex) of the points sorted by x, one line per point,

@@ -1,6 +1,6 @@
 import { QueryTypes } from 'sequelize'
 import { firstBrokenLink, type ChainRow } from '../lib/audit-chain'
-import type { AuditEventDto, AuditPageDto, AuditVerifyDto, ChainVerdictDto } from '../../shared/types/audit'
+import type { AuditEventDto, AuditPageDto, AuditVerifyDto, ChainVerdictDto } from '#shared/types/audit'
 
 // The organisation's audit trail (its own hash chain) plus the sign-ins of its members, which live in
 // the org-less system chain and are shown labelled as such.

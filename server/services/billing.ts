@@ -1,5 +1,5 @@
 import type { H3Event } from 'h3'
-import type { BillingDto, BillingInvoiceDto } from '../../shared/types/api'
+import type { BillingDto, BillingInvoiceDto } from '#shared/types/api'
 import { BillingInvoice, type BillingAccount, type Organisation } from '../database/models'
 import { PLAN, TRIAL_DAYS, planPriceId } from './billing-plan'
 import { syncBillingAccount } from './billing-sync'
@@ -46,7 +46,7 @@ export async function changeSeats(event: H3Event, org: Organisation, seats: numb
   const account = await provisionBilling(event, org)
   const usage = await seatUsage(org.id, account.seats)
   if (seats < usage.used) {
-    throw createError({ statusCode: 409, statusMessage: `${usage.used} seats are in use (${usage.members} members, ${usage.pending} open invitations). Remove people or cancel invitations before going below that.` })
+    throw apiError(409, 'seats-in-use', `${usage.used} seats are in use (${usage.members} members, ${usage.pending} open invitations). Remove people or cancel invitations before going below that.`)
   }
   if (seats === account.seats) return
   const stripe = useStripe()

@@ -1,11 +1,11 @@
 import type { H3Event } from 'h3'
 import { QueryTypes } from 'sequelize'
-import { canonicalDecimal } from '../../shared/decimal-text'
+import { canonicalDecimal } from '#shared/decimal-text'
 import { SIGNED_FORMAT, canonicalBytes, contentSha256, readWorkbookCells, signatureSheetField, signBytes, verifyWorkbookCells, writeSignedWorkbook, type Json, type Pair, type Person, type SignedContent } from '../lib/signing'
 import { guardXlsxZip } from '../lib/import/zip-guard'
 import { ImportRefused } from '../lib/import/limits'
 import type { OrgAccess } from '../utils/auth'
-import type { ExportVerdictDto } from '../../shared/types/exports'
+import type { ExportVerdictDto } from '#shared/types/exports'
 import { activeSigningKey, publicKeyById } from './signing-keys'
 
 type Row = Record<string, unknown>
@@ -32,7 +32,7 @@ async function signedContent(org: OrgRef, tableId: string, number: number, keyId
     WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number`,
   { replacements: { orgId: org.id, tableId, number }, type: QueryTypes.SELECT })
   if (!r) notFound('version')
-  if (r.status !== 'approved' && r.status !== 'retired') throw createError({ statusCode: 409, statusMessage: 'Only a signed-off version can be exported with a signature.' })
+  if (r.status !== 'approved' && r.status !== 'retired') throw apiError(409, 'not-signed-off', 'Only a signed-off version can be exported with a signature.')
   const id = r.id as string
   return {
     format: SIGNED_FORMAT,

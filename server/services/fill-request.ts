@@ -1,15 +1,7 @@
 import Decimal from 'decimal.js'
-import type { FillRequest, MethodId, ResolvedSpec, TableKind, TransformId, ExtrapolationRule } from '../engine/types'
-import type { FillExtrapolation, FillMethodId, FillTransformId } from '../../shared/fills'
-import { parseStep } from '../../shared/fills'
-import type { BenchGrid, CompareInput, MethodChoice } from '../../shared/schemas/fills'
-
-// The shared lists must name exactly the engine's ids (a compile error here means they drifted apart).
-type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false
-const _methodsMatch: Same<FillMethodId, MethodId> = true
-const _transformsMatch: Same<FillTransformId, TransformId> = true
-const _rulesMatch: Same<FillExtrapolation, ExtrapolationRule> = true
-void [_methodsMatch, _transformsMatch, _rulesMatch]
+import type { FillRequest, TableKind } from '../engine/types'
+import { parseStep } from '#shared/fills'
+import type { BenchGrid, CompareInput, MethodChoice } from '#shared/schemas/fills'
 
 /** Digits after the point for grid abscissae of a fractional step (1/12 of a year is kept to 1e-12 years). */
 const FRACTION_DIGITS = 12
@@ -49,20 +41,5 @@ export function buildFillRequest(base: FillBase, settings: Omit<CompareInput, 'm
     ...gridToEngine(settings.grid),
     ...(settings.precision ? { precision: settings.precision } : {}),
     ...(settings.money ? { money: settings.money } : {}),
-  }
-}
-
-/** The request that re-runs a saved fill digit for digit: the stored resolved spec and the version's points. */
-export function requestFromSpec(spec: ResolvedSpec, knots: { x: string, y: string }[]): FillRequest {
-  return {
-    knots,
-    kind: spec.kind,
-    method: spec.method,
-    options: spec.options,
-    transform: spec.transform,
-    extrapolation: spec.extrapolation,
-    ...(spec.grid ? { grid: spec.grid } : { at: spec.at ?? [] }),
-    precision: spec.precision,
-    money: spec.money,
   }
 }

@@ -4,9 +4,9 @@ import type { H3Event } from 'h3'
 import { compareAsync, fill, EngineError, METHODS, TRANSFORM_LISTING, ENGINE_VERSION, REVIEW_CAUTION } from '../engine/index'
 import type { FillResult } from '../engine/types'
 import type { OrgAccess } from '../utils/auth'
-import type { CompareInput, SaveFillInput } from '../../shared/schemas/fills'
-import type { CompareResponseDto, FillMethodsDto, SavedFillDto, StoredFillSpec } from '../../shared/types/fills'
-import type { VersionStatus } from '../../shared/tables'
+import type { CompareInput, SaveFillInput } from '#shared/schemas/fills'
+import type { CompareResponseDto, FillMethodsDto, SavedFillDto, StoredFillSpec } from '#shared/types/fills'
+import type { VersionStatus } from '#shared/tables'
 import { findTable } from './versions'
 import { readPoints } from './points-store'
 import { buildFillRequest } from './fill-request'
@@ -27,7 +27,7 @@ async function versionRow(orgId: string, tableId: string, number: number, t?: Tr
 
 /** An engine refusal is the user's to fix: 400 with the engine's own words. */
 function engineFailure(error: unknown): never {
-  if (error instanceof EngineError) throw createError({ statusCode: 400, statusMessage: error.message, data: { code: error.code, point: error.point } })
+  if (error instanceof EngineError) throw apiError(400, 'engine-refused', error.message, { engineCode: error.code, point: error.point })
   throw error
 }
 
@@ -54,7 +54,7 @@ export async function runCompare(access: OrgAccess, tableId: string, number: num
       const slice = Math.min(25, Math.max(2, (performance.now() - resumed) * 0.05))
       await new Promise(resolve => setTimeout(resolve, slice))
       resumed = performance.now()
-      if (gone()) throw createError({ statusCode: 499, statusMessage: 'The comparison was cancelled.' })
+      if (gone()) throw apiError(499, 'cancelled', 'The comparison was cancelled.')
     })
   }
   catch (error) { engineFailure(error) }
@@ -82,9 +82,9 @@ export async function saveFill(event: H3Event, access: OrgAccess, tableId: strin
   const table = await findTable(access.org.id, tableId)
   await inTransaction(async (t) => {
     const version = await versionRow(access.org.id, tableId, number, t, true)
-    if (version.status !== 'draft') throw createError({ statusCode: 409, statusMessage: 'Only a working draft takes a fill; start a new draft from this version.' })
+    if (version.status !== 'draft') throw apiError(409, 'not-a-draft', 'Only a working draft takes a fill; start a new draft from this version.')
     if (version.lockVersion !== input.lockVersion) {
-      throw createError({ statusCode: 409, statusMessage: 'This draft changed after you opened the bench (points or fill saved by someone). Run the comparison again, then choose.', data: { lockVersion: version.lockVersion } })
+      throw apiError(409, 'draft-conflict', 'This draft changed after you opened the bench (points or fill saved by someone). Run the comparison again, then choose.', { lockVersion: version.lockVersion })
     }
     const knots = await readPoints(version.id, t)
     let result: FillResult

@@ -1,8 +1,8 @@
 import { QueryTypes, type Transaction } from 'sequelize'
 import type { H3Event } from 'h3'
 import type { OrgAccess } from '../utils/auth'
-import type { ImportMapping } from '../../shared/schemas/imports'
-import type { ColumnSuggestion, ImportCommitDto, ImportDto, ImportFinding, ImportPreviewDto, ImportSheetDto } from '../../shared/types/tables'
+import type { ImportMapping } from '#shared/schemas/imports'
+import type { ColumnSuggestion, ImportCommitDto, ImportDto, ImportFinding, ImportPreviewDto, ImportSheetDto } from '#shared/types/tables'
 import { IMPORT_LIMITS, ImportRefused } from '../lib/import/limits'
 import { readWorkbook, type StoredSheet } from '../lib/import/read-workbook'
 import { guessAxis, proposeHeaderRow, suggestColumns } from '../lib/import/analyse'
@@ -15,7 +15,7 @@ interface ImportRow { id: string; file_name: string; file_kind: 'xlsx' | 'csv'; 
 
 /** A 4xx the route can send: the refusal's own status and words. */
 export function refusal(e: unknown): never {
-  if (e instanceof ImportRefused) throw createError({ statusCode: e.statusCode, statusMessage: e.message })
+  if (e instanceof ImportRefused) throw apiError(e.statusCode, 'import-refused', e.message)
   throw e
 }
 
@@ -73,10 +73,10 @@ async function nameClashes(orgId: string, m: ImportMapping, t?: Transaction): Pr
 
 async function check(access: OrgAccess, row: ImportRow, m: ImportMapping, t?: Transaction): Promise<Validation> {
   const sheet = row.sheets.find(s => s.name === m.sheet)
-  if (!sheet) throw createError({ statusCode: 400, statusMessage: `The upload has no sheet '${m.sheet}'.` })
+  if (!sheet) throw apiError(400, 'invalid-input', `The upload has no sheet '${m.sheet}'.`)
   const width = sheet.colCount
   if (m.headerRow >= sheet.rows.length || m.axisColumn >= width || m.columns.some(c => c.index >= width)) {
-    throw createError({ statusCode: 400, statusMessage: 'The header row or a column is outside the sheet.' })
+    throw apiError(400, 'invalid-input', 'The header row or a column is outside the sheet.')
   }
   const v = validateMapping(sheet, m)
   v.findings.unshift(...await nameClashes(access.org.id, m, t))
@@ -107,8 +107,8 @@ export async function commitImport(event: H3Event, access: OrgAccess, id: string
     const v = await check(access, row, m, t)
     const errors = v.findings.filter(f => f.severity === 'error')
     const warnings = v.findings.filter(f => f.severity === 'warning')
-    if (errors.length) throw createError({ statusCode: 422, statusMessage: `${errors.length} problem(s) block the import: ${errors[0]!.message}`, data: { findings: v.findings } })
-    if (warnings.length && !acceptWarnings) throw createError({ statusCode: 409, statusMessage: `Accept the ${warnings.length} warning(s) first, or fix them.`, data: { findings: v.findings } })
+    if (errors.length) throw apiError(422, 'import-blocked', `${errors.length} problem(s) block the import: ${errors[0]!.message}`, { findings: v.findings })
+    if (warnings.length && !acceptWarnings) throw apiError(409, 'import-warnings', `Accept the ${warnings.length} warning(s) first, or fix them.`, { findings: v.findings })
     const created: ImportCommitDto['tables'] = []
     for (const table of v.tables) {
       const [tr] = await useDb().query<Row>(

@@ -1,5 +1,5 @@
 import type { H3Event } from 'h3'
-import { acceptExistingAccountSchema, acceptNewAccountSchema } from '../../shared/schemas/members'
+import { acceptExistingAccountSchema, acceptNewAccountSchema } from '#shared/schemas/members'
 import { Invitation, Membership, Organisation, User } from '../database/models'
 import { hashPassword, verifyPassword } from '../lib/password'
 import { invitationByToken } from './invitations'
@@ -21,10 +21,10 @@ export async function acceptInvitation(event: H3Event, token: string, body: unkn
   if (existing && !verified) {
     const { password } = parseOr400(acceptExistingAccountSchema, body)
     const ip = clientAddress(event)
-    if (await loginRetryAfter(existing.email, ip) > 0) throw createError({ statusCode: 429, statusMessage: 'Too many failed sign-ins. Try again later.' })
+    if (await loginRetryAfter(existing.email, ip) > 0) throw apiError(429, 'rate-limited', 'Too many failed sign-ins. Try again later.')
     if (!(await verifyPassword(existing.passwordHash, password))) {
       await recordLoginFailure(existing.email, ip)
-      throw createError({ statusCode: 401, statusMessage: `That is not the password of ${existing.email}. Try again, or use "Forgot password" on the sign-in page.` })
+      throw apiError(401, 'wrong-credentials', `That is not the password of ${existing.email}. Try again, or use "Forgot password" on the sign-in page.`)
     }
   } else if (!existing) {
     const input = parseOr400(acceptNewAccountSchema, body)
@@ -35,7 +35,7 @@ export async function acceptInvitation(event: H3Event, token: string, body: unkn
     const org = (await Organisation.findByPk(invitation.orgId, { transaction: t }))!
     let user = await User.findOne({ where: { email: invitation.email }, transaction: t })
     if (!user) {
-      if (!newAccount) throw createError({ statusCode: 409, statusMessage: 'Reload the page and try again.' })
+      if (!newAccount) throw apiError(409, 'reload-needed', 'Reload the page and try again.')
       user = await User.create({ email: invitation.email, ...newAccount }, { transaction: t })
     }
     const actor = { id: user.id, email: user.email }

@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 import { Op, type Transaction } from 'sequelize'
-import type { Role } from '../../shared/permissions'
-import type { InvitationDto, InvitationPreviewDto } from '../../shared/types/api'
+import type { Role } from '#shared/permissions'
+import type { InvitationDto, InvitationPreviewDto } from '#shared/types/api'
 import { Invitation, Membership, Organisation, User } from '../database/models'
 import { hashToken, looksLikeToken, newToken } from '../lib/tokens'
 import type { OrgAccess } from '../utils/auth'
@@ -31,7 +31,7 @@ async function sendInvitation(access: OrgAccess, invitation: Invitation, t: Tran
   try {
     await sendMail(invitationMail(invitation.email, access.org.name, access.user.name, invitation.role, appLink(`/invitations/${token}`), expiresAt))
   } catch {
-    throw createError({ statusCode: 502, statusMessage: 'The invitation e-mail could not be sent. Nothing was saved; try again in a minute.' })
+    throw apiError(502, 'mail-failed', 'The invitation e-mail could not be sent. Nothing was saved; try again in a minute.')
   }
 }
 
@@ -40,23 +40,21 @@ export async function createInvitation(event: H3Event, access: OrgAccess, email:
   const { org } = access
   const existing = await User.findOne({ where: { email } })
   if (existing && await Membership.findOne({ where: { orgId: org.id, userId: existing.id } })) {
-    throw createError({ statusCode: 409, statusMessage: `${email} is already a member of ${org.name}.` })
+    throw apiError(409, 'already-member', `${email} is already a member of ${org.name}.`)
   }
   await provisionBilling(event, org)
   return inTransaction(async (t) => {
     const account = await ensureBillingAccount(org.id, t, true)
     const previous = await Invitation.findOne({ where: { orgId: org.id, email, ...open }, transaction: t, lock: t.LOCK.UPDATE })
     if (previous && previous.expiresAt.getTime() > Date.now()) {
-      throw createError({ statusCode: 409, statusMessage: `${email} already has an open invitation. Resend it from the list below.` })
+      throw apiError(409, 'invitation-open', `${email} already has an open invitation. Resend it from the list below.`)
     }
     if (previous) await previous.update({ cancelledAt: new Date() }, { transaction: t })
     const usage = await seatUsage(org.id, account.seats, t)
     if (usage.used >= usage.purchased) {
-      throw createError({
-        statusCode: 409,
-        statusMessage: `All ${usage.purchased} seats are in use (${usage.members} members, ${usage.pending} open invitations). Add seats on the billing page to invite more people.`,
-        data: { reason: 'no-free-seat', billing: `/orgs/${org.slug}/billing`, seats: usage },
-      })
+      throw apiError(409, 'seats-full',
+        `All ${usage.purchased} seats are in use (${usage.members} members, ${usage.pending} open invitations). Add seats on the billing page to invite more people.`,
+        { billing: `/orgs/${org.slug}/billing`, seats: usage })
     }
     const invitation = await Invitation.create({ orgId: org.id, email, role, tokenHash: newToken().hash, invitedBy: access.user.id, expiresAt: new Date() }, { transaction: t })
     await sendInvitation(access, invitation, t)
@@ -78,7 +76,7 @@ export async function resendInvitation(event: H3Event, access: OrgAccess, id: st
     const invitation = await openInvitation(access.org.id, id, t)
     if (invitation.expiresAt.getTime() <= Date.now()) {
       const usage = await seatUsage(access.org.id, account.seats, t)
-      if (usage.used >= usage.purchased) throw createError({ statusCode: 409, statusMessage: 'This invitation has expired and every seat is taken. Add seats on the billing page first.', data: { reason: 'no-free-seat', billing: `/orgs/${access.org.slug}/billing` } })
+      if (usage.used >= usage.purchased) throw apiError(409, 'seats-full', 'This invitation has expired and every seat is taken. Add seats on the billing page first.', { billing: `/orgs/${access.org.slug}/billing` })
     }
     await sendInvitation(access, invitation, t)
     await audit(event, { orgId: access.org.id, action: 'invitation.resend', objectType: 'invitation', objectId: invitation.id, detail: { email: invitation.email } }, t)
@@ -101,7 +99,7 @@ export async function invitationByToken(token: unknown, t?: Transaction): Promis
   const found = looksLikeToken(token)
     ? await Invitation.findOne({ where: { tokenHash: hashToken(token), ...open, expiresAt: { [Op.gt]: new Date() } }, transaction: t, ...(t ? { lock: t.LOCK.UPDATE } : {}) })
     : null
-  if (!found) throw createError({ statusCode: 404, statusMessage: GONE })
+  if (!found) throw apiError(404, 'not-found', GONE)
   return found
 }
 

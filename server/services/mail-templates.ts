@@ -1,4 +1,4 @@
-import { ROLE_LABELS, type Role } from '../../shared/permissions'
+import { ROLE_LABELS, type Role } from '#shared/permissions'
 import type { OutgoingMail } from '../utils/mail'
 
 const esc = (v: string) => v.replace(/[&<>"']/g, c => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' })[c]!)

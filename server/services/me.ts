@@ -1,4 +1,4 @@
-import type { MeDto } from '../../shared/types/api'
+import type { MeDto } from '#shared/types/api'
 import { Membership, Organisation, type User } from '../database/models'
 
 export async function describeMe(user: Pick<User, 'id' | 'email' | 'name'>): Promise<MeDto> {

@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
 import { Op, type Transaction } from 'sequelize'
-import type { Role } from '../../shared/permissions'
+import type { Role } from '#shared/permissions'
 import { Membership } from '../database/models'
 import type { OrgAccess } from '../utils/auth'
 
@@ -14,7 +14,7 @@ async function lockedMembership(orgId: string, userId: string, t: Transaction): 
 
 function keepOneAdmin(target: Membership, admins: number, what: string) {
   if (target.role === 'admin' && admins <= 1) {
-    throw createError({ statusCode: 409, statusMessage: `${what}: an organisation needs at least one administrator. Make someone else an administrator first.` })
+    throw apiError(409, 'last-admin', `${what}: an organisation needs at least one administrator. Make someone else an administrator first.`)
   }
 }
 

@@ -32,7 +32,7 @@ export async function confirmPasswordReset(event: H3Event, token: string, passwo
   const userId = await inTransaction(async (t) => {
     const reset = await PasswordReset.findOne({ where: { tokenHash: hashToken(token) }, transaction: t, lock: t.LOCK.UPDATE })
     if (!reset || reset.usedAt || reset.expiresAt.getTime() <= Date.now()) {
-      throw createError({ statusCode: 400, statusMessage: 'This reset link is not valid any more: it was used or it expired. Ask for a new one.' })
+      throw apiError(400, 'link-expired', 'This reset link is not valid any more: it was used or it expired. Ask for a new one.')
     }
     const user = (await User.findByPk(reset.userId, { transaction: t }))!
     await user.update({ passwordHash, passwordChangedAt: new Date() }, { transaction: t })

@@ -1,5 +1,5 @@
 import { QueryTypes, type Transaction } from 'sequelize'
-import type { PointDto } from '../../shared/types/tables'
+import type { PointDto } from '#shared/types/tables'
 
 /** Writes a version's points in one statement per 10,000 points (NUMERIC from decimal text, never floats). */
 export async function insertPoints(versionId: string, points: PointDto[], t: Transaction): Promise<void> {

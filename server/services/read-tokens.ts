@@ -2,7 +2,7 @@ import { createHash, randomBytes } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { QueryTypes } from 'sequelize'
 import type { OrgAccess } from '../utils/auth'
-import type { ReadTokenDto } from '../../shared/types/read-tokens'
+import type { ReadTokenDto } from '#shared/types/read-tokens'
 
 type Row = Record<string, unknown>
 const PREFIX = 'kwr_'
@@ -39,7 +39,7 @@ export async function createReadToken(event: H3Event, access: OrgAccess, name: s
       ? await useDb().query<{ id: string, name: string }>('SELECT id, name FROM rate_tables WHERE org_id = :orgId AND id IN (:ids) ORDER BY name',
         { replacements: { orgId: access.org.id, ids }, type: QueryTypes.SELECT, transaction: t })
       : null
-    if (ids && named!.length !== ids.length) throw createError({ statusCode: 400, statusMessage: 'A chosen table is not one of this organisation\'s tables.' })
+    if (ids && named!.length !== ids.length) throw apiError(400, 'invalid-input', 'A chosen table is not one of this organisation\'s tables.')
     const [row] = await useDb().query<{ id: string }>(`INSERT INTO read_tokens (org_id, name, token_hash, hint, created_by, table_ids)
       VALUES (:orgId, :name, :hash, :hint, :userId, ${ids ? 'ARRAY[:ids]::uuid[]' : 'NULL'}) RETURNING id`,
     { replacements: { orgId: access.org.id, name, hash: hashOf(token), hint, userId: access.user.id, ids }, type: QueryTypes.SELECT, transaction: t })
@@ -91,12 +91,12 @@ export async function requireReadToken(event: H3Event): Promise<ReadAccess> {
     : []
   if (!row) {
     setResponseHeader(event, 'www-authenticate', 'Bearer realm="knotwork"')
-    throw createError({ statusCode: 401, statusMessage: 'A valid read token is needed: send "Authorization: Bearer <token>". An administrator creates tokens on the members page.' })
+    throw apiError(401, 'read-token-required', 'A valid read token is needed: send "Authorization: Bearer <token>". An administrator creates tokens on the members page.')
   }
   if ((row.window_count as number) > READ_REQUESTS_PER_MINUTE) {
     const wait = Math.max(1, row.window_left as number)
     setResponseHeader(event, 'retry-after', wait)
-    throw createError({ statusCode: 429, statusMessage: `This token has made more than ${READ_REQUESTS_PER_MINUTE} requests this minute; retry in ${wait} s (a 304 answer counts too).` })
+    throw apiError(429, 'rate-limited', `This token has made more than ${READ_REQUESTS_PER_MINUTE} requests this minute; retry in ${wait} s (a 304 answer counts too).`)
   }
   return { tokenId: row.id as string, tokenName: row.name as string, org: { id: row.org_id as string, slug: row.slug as string, name: row.org_name as string },
     tableIds: (row.table_ids as string[] | null) ?? null }

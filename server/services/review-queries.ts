@@ -1,7 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize'
-import { can } from '../../shared/permissions'
-import type { PersonRef, ReviewQueueItemDto, ReviewStateDto, VersionCommentDto } from '../../shared/types/review'
-import type { VersionStatus } from '../../shared/tables'
+import { can } from '#shared/permissions'
+import type { PersonRef, ReviewQueueItemDto, ReviewStateDto, VersionCommentDto } from '#shared/types/review'
+import type { VersionStatus } from '#shared/tables'
 import type { OrgAccess } from '../utils/auth'
 
 type Row = Record<string, unknown>

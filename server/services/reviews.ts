@@ -1,7 +1,8 @@
 import type { H3Event } from 'h3'
 import { QueryTypes, type Transaction } from 'sequelize'
-import type { ReviewStateDto } from '../../shared/types/review'
-import type { CommentKind } from '../../shared/types/review'
+import type { ReviewStateDto } from '#shared/types/review'
+import type { CommentKind } from '#shared/types/review'
+import type { ApiErrorCode } from '#shared/api-errors'
 import type { OrgAccess } from '../utils/auth'
 import { findVersion, makers, reviewState, type VersionRow } from './review-queries'
 import { notifyReviewDecided, notifyReviewRequested, type ReviewMailContext } from './review-mail'
@@ -9,7 +10,7 @@ import { notifyReviewDecided, notifyReviewRequested, type ReviewMailContext } fr
 // Maker-checker: submit (draft -> in-review), sign off (in-review -> approved, the previous approved
 // version -> retired), send back (in-review -> draft) and withdraw (approved -> retired).
 
-const conflict = (statusMessage: string): never => { throw createError({ statusCode: 409, statusMessage }) }
+const conflict = (message: string, code: ApiErrorCode = 'wrong-state'): never => { throw apiError(409, code, message) }
 
 async function addComment(t: Transaction, access: OrgAccess, versionId: string, kind: CommentKind, body: string) {
   await useDb().query('INSERT INTO version_comments (org_id, version_id, author_id, kind, body) VALUES (:org, :versionId, :author, :kind, :body)',
@@ -27,7 +28,7 @@ export async function submitForReview(event: H3Event, access: OrgAccess, tableId
   const v = await inTransaction(async (t) => {
     const v = await findVersion(access.org.id, tableId, number, t)
     if (v.status !== 'draft') conflict('Only a working draft can be submitted for a second check.')
-    if (!v.has_fill) conflict('Record a fill for this draft first: a second check needs the chosen method and its filled values.')
+    if (!v.has_fill) conflict('Record a fill for this draft first: a second check needs the chosen method and its filled values.', 'fill-missing')
     await useDb().query(`UPDATE table_versions SET status = 'in-review', submitted_by = :user, submitted_at = now(), lock_version = lock_version + 1, updated_at = now() WHERE id = :id`,
       { replacements: { user: access.user.id, id: v.id }, transaction: t })
     await addComment(t, access, v.id, 'submit', note || 'Submitted for a second check.')
@@ -40,7 +41,7 @@ export async function submitForReview(event: H3Event, access: OrgAccess, tableId
 
 /** Signs off someone else's version; refuses the caller's own work with 403 (also re-checked under the row lock). */
 export async function approveVersion(event: H3Event, access: OrgAccess, tableId: string, number: number, comment?: string): Promise<ReviewStateDto> {
-  const ownWork = () => createError({ statusCode: 403, statusMessage: 'You made, filled or submitted this version, so you cannot sign it off: another actuary must give the second check.' })
+  const ownWork = () => apiError(403, 'own-work', 'You made, filled or submitted this version, so you cannot sign it off: another actuary must give the second check.')
   const before = await findVersion(access.org.id, tableId, number)
   if (makers(before).includes(access.user.id)) {
     await audit(event, { orgId: access.org.id, action: 'version.approve', outcome: 'denied', objectType: 'table_version', objectId: before.id, detail: { tableId, number, reason: 'own work' } })
@@ -51,7 +52,7 @@ export async function approveVersion(event: H3Event, access: OrgAccess, tableId:
     const v = await findVersion(access.org.id, tableId, number, t)
     if (makers(v).includes(access.user.id)) throw ownWork()
     if (v.status !== 'in-review') conflict('Only a version awaiting a second check can be signed off.')
-    if (!v.has_fill) conflict('This version has no recorded fill; send it back.')
+    if (!v.has_fill) conflict('This version has no recorded fill; send it back.', 'fill-missing')
     const previous = await useDb().query<{ id: string; number: number }>(`SELECT id, number FROM table_versions WHERE table_id = :tableId AND status = 'approved' AND id <> :id`,
       { replacements: { tableId, id: v.id }, type: QueryTypes.SELECT, transaction: t })
     await useDb().query(`UPDATE table_versions SET status = 'approved', approved_by = :user, approved_at = now(), updated_at = now() WHERE id = :id`,
@@ -72,7 +73,7 @@ export async function approveVersion(event: H3Event, access: OrgAccess, tableId:
 export async function sendBack(event: H3Event, access: OrgAccess, tableId: string, number: number, comment: string): Promise<ReviewStateDto> {
   const v = await inTransaction(async (t) => {
     const v = await findVersion(access.org.id, tableId, number, t)
-    if (makers(v).includes(access.user.id)) throw createError({ statusCode: 403, statusMessage: 'You made this version: to change it yourself, ask a reviewer to send it back, or comment on it.' })
+    if (makers(v).includes(access.user.id)) throw apiError(403, 'own-work', 'You made this version: to change it yourself, ask a reviewer to send it back, or comment on it.')
     if (v.status !== 'in-review') conflict('Only a version awaiting a second check can be sent back.')
     await useDb().query(`UPDATE table_versions SET status = 'draft', submitted_by = NULL, submitted_at = NULL, lock_version = lock_version + 1, updated_at = now() WHERE id = :id`,
       { replacements: { id: v.id }, transaction: t })

@@ -1,5 +1,5 @@
 import { QueryTypes, type Transaction } from 'sequelize'
-import type { SeatsDto } from '../../shared/types/api'
+import type { SeatsDto } from '#shared/types/api'
 import { BillingAccount } from '../database/models'
 import { NEW_ORG_SEATS } from './billing-plan'
 

@@ -10,7 +10,7 @@ export interface SigningKeyDto extends PublicJwk { status: 'active' | 'retired';
 
 function secret(): string {
   const s = String(useRuntimeConfig().signingSecret || '')
-  if (s.length < 32) throw createError({ statusCode: 503, statusMessage: 'Signing is not configured on this server (NUXT_SIGNING_SECRET of at least 32 characters). Start it through npm start.' })
+  if (s.length < 32) throw apiError(503, 'not-configured', 'Signing is not configured on this server (NUXT_SIGNING_SECRET of at least 32 characters). Start it through npm start.')
   return s
 }
 

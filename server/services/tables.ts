@@ -1,6 +1,6 @@
 import { QueryTypes } from 'sequelize'
-import type { TableSummaryDto } from '../../shared/types/api'
-import type { TableKind, VersionStatus } from '../../shared/tables'
+import type { TableSummaryDto } from '#shared/types/api'
+import type { TableKind, VersionStatus } from '#shared/tables'
 
 export interface TableListQuery { q?: string; kind?: TableKind; status?: VersionStatus; sort: 'name' | 'updated' | 'kind' }
 

@@ -1,6 +1,6 @@
 import { QueryTypes } from 'sequelize'
-import { D, canonicalDecimal } from '../../shared/decimal-text'
-import type { DiffRowDto, DiffSideDto, VersionDiffDto } from '../../shared/types/diff'
+import { D, canonicalDecimal } from '#shared/decimal-text'
+import type { DiffRowDto, DiffSideDto, VersionDiffDto } from '#shared/types/diff'
 
 // Two versions of one table compared exactly (decimal.js): given points, filled values, fill settings, money view.
 type Row = Record<string, unknown>

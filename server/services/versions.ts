@@ -1,9 +1,9 @@
 import { QueryTypes } from 'sequelize'
 import type { H3Event } from 'h3'
 import type { OrgAccess } from '../utils/auth'
-import type { TableDto, VersionDto, VersionSummaryDto } from '../../shared/types/tables'
-import type { SavePointsInput, TableUpdateInput } from '../../shared/schemas/tables'
-import { checkAxis, checkValue } from '../../shared/table-rules'
+import type { TableDto, VersionDto, VersionSummaryDto } from '#shared/types/tables'
+import type { SavePointsInput, TableUpdateInput } from '#shared/schemas/tables'
+import { checkAxis, checkValue } from '#shared/table-rules'
 import { pointsContentHash } from '../lib/points-hash'
 import { RateTable } from '../database/models'
 import { insertPoints, readPoints } from './points-store'
@@ -63,11 +63,11 @@ export async function updateTable(event: H3Event, access: OrgAccess, tableId: st
     // what the numbers mean is part of what a reviewer checked and signed: it is fixed once a version left draft
     const [row] = await useDb().query<{ n: number }>(`SELECT count(*)::int AS n FROM table_versions WHERE table_id = :tableId AND status <> 'draft'`, { replacements: { tableId: table.id }, type: QueryTypes.SELECT })
     if (row!.n > 0) {
-      throw createError({ statusCode: 409, statusMessage: 'The kind, axis and units cannot change once a version has been submitted for review or signed off. Name, description and tags can; for another kind or unit, create a new table.' })
+      throw apiError(409, 'meaning-fixed', 'The kind, axis and units cannot change once a version has been submitted for review or signed off. Name, description and tags can; for another kind or unit, create a new table.')
     }
   }
   if (input.name && input.name !== table.name && await RateTable.findOne({ where: { orgId: access.org.id, name: input.name } })) {
-    throw createError({ statusCode: 409, statusMessage: `A table called "${input.name}" already exists.` })
+    throw apiError(409, 'name-taken', `A table called "${input.name}" already exists.`)
   }
   await inTransaction(async (t) => {
     const before = { name: table.name, kind: table.kind, valueUnit: table.valueUnit, axis: table.axis, axisUnit: table.axisUnit, tags: table.tags }
@@ -87,7 +87,7 @@ export async function savePoints(event: H3Event, access: OrgAccess, tableId: str
     if (a?.severity === 'error') problems.push(`x = ${p.x}: ${a.message}`)
     if (v?.severity === 'error') problems.push(`x = ${p.x}: ${v.message}`)
   }
-  if (problems.length) throw createError({ statusCode: 400, statusMessage: problems[0], data: { issues: problems.slice(0, 50).map(message => ({ path: 'points', message })) } })
+  if (problems.length) throw apiError(400, 'invalid-input', problems[0]!, { issues: problems.slice(0, 50).map(message => ({ path: 'points', message })) })
   const points = sortPoints(input.points)
   const hash = pointsContentHash(points)
   await inTransaction(async (t) => {
@@ -99,8 +99,8 @@ export async function savePoints(event: H3Event, access: OrgAccess, tableId: str
       const [current] = await useDb().query<Row>('SELECT status, lock_version FROM table_versions WHERE org_id = :orgId AND table_id = :tableId AND number = :number',
         { replacements: { orgId: access.org.id, tableId, number }, type: QueryTypes.SELECT, transaction: t })
       if (!current) notFound('version')
-      if (current.status !== 'draft') throw createError({ statusCode: 409, statusMessage: 'Only a working draft can be edited; start a new draft from this version.' })
-      throw createError({ statusCode: 409, statusMessage: 'Someone saved this draft after you opened it. Your edits are kept on screen: reload their version, then apply yours again.', data: { lockVersion: current.lock_version } })
+      if (current.status !== 'draft') throw apiError(409, 'not-a-draft', 'Only a working draft can be edited; start a new draft from this version.')
+      throw apiError(409, 'draft-conflict', 'Someone saved this draft after you opened it. Your edits are kept on screen: reload their version, then apply yours again.', { lockVersion: current.lock_version })
     }
     const versionId = rows[0]!.id as string
     await useDb().query('DELETE FROM version_points WHERE version_id = :versionId', { replacements: { versionId }, transaction: t })
@@ -118,9 +118,9 @@ export async function newDraftFrom(event: H3Event, access: OrgAccess, tableId: s
     const versions = await useDb().query<Row>('SELECT id, number, status, content_hash FROM table_versions WHERE org_id = :orgId AND table_id = :tableId ORDER BY number',
       { replacements: { orgId: access.org.id, tableId }, type: QueryTypes.SELECT, transaction: t })
     const source = versions.find(v => v.number === fromNumber) ?? notFound('version')
-    if (source.status !== 'approved' && source.status !== 'retired') throw createError({ statusCode: 409, statusMessage: 'A new draft starts from a signed-off or withdrawn version.' })
+    if (source.status !== 'approved' && source.status !== 'retired') throw apiError(409, 'wrong-state', 'A new draft starts from a signed-off or withdrawn version.')
     const open = versions.find(v => v.status === 'draft' || v.status === 'in-review')
-    if (open) throw createError({ statusCode: 409, statusMessage: `Version ${open.number} is still open (${open.status === 'draft' ? 'a working draft' : 'awaiting a second check'}); continue there.` })
+    if (open) throw apiError(409, 'version-open', `Version ${open.number} is still open (${open.status === 'draft' ? 'a working draft' : 'awaiting a second check'}); continue there.`)
     const next = (versions.at(-1)!.number as number) + 1
     const [created] = await useDb().query<Row>(
       `INSERT INTO table_versions (org_id, table_id, number, status, author_id, notes, content_hash)

@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
 import { Op } from 'sequelize'
-import { can, type Permission, type Role } from '../../shared/permissions'
+import { can, type Permission, type Role } from '#shared/permissions'
 import { Membership, Organisation, SessionRecord, User } from '../database/models'
 
 export interface AuthUser { id: string; email: string; name: string }
@@ -38,15 +38,15 @@ export async function requireUser(event: H3Event): Promise<{ user: AuthUser; ses
   if (event.context.auth) return event.context.auth
   const session = await getUserSession(event)
   const sid = session.sid
-  if (!session.user || !sid) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue.' })
+  if (!session.user || !sid) throw apiError(401, 'sign-in-required', 'Sign in to continue.')
   const record = await SessionRecord.findByPk(sid)
   if (!record || record.revokedAt || record.expiresAt.getTime() < Date.now() || record.userId !== session.user.id) {
     await clearUserSession(event)
-    throw createError({ statusCode: 401, statusMessage: 'Your session has ended. Sign in again.' })
+    throw apiError(401, 'session-ended', 'Your session has ended. Sign in again.')
   }
   if (Date.now() - record.lastSeenAt.getTime() > 60_000) await record.update({ lastSeenAt: new Date() })
   const user = await User.findByPk(record.userId)
-  if (!user) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue.' })
+  if (!user) throw apiError(401, 'sign-in-required', 'Sign in to continue.')
   const auth = { user: { id: user.id, email: user.email, name: user.name }, sessionId: sid }
   event.context.auth = auth
   return auth
@@ -59,7 +59,7 @@ export async function requireMember(event: H3Event, slug = getRouterParam(event,
   if (cached && cached.org.slug === slug) return cached
   const org = slug ? await Organisation.findOne({ where: { slug } }) : null
   const membership = org ? await Membership.findOne({ where: { orgId: org.id, userId: user.id } }) : null
-  if (!org || !membership) throw createError({ statusCode: 404, statusMessage: 'No such organisation.' })
+  if (!org || !membership) throw apiError(404, 'not-found', 'No such organisation.')
   const access: OrgAccess = { user, org, role: membership.role, sessionId }
   event.context.access = access
   return access
@@ -69,12 +69,12 @@ export async function requireMember(event: H3Event, slug = getRouterParam(event,
 export async function requirePermission(event: H3Event, permission: Permission): Promise<OrgAccess> {
   const access = await requireMember(event)
   if (!can(access.role, permission)) {
-    throw createError({ statusCode: 403, statusMessage: `Your role (${access.role}) does not allow this.` })
+    throw apiError(403, 'role-forbidden', `Your role (${access.role}) does not allow this.`)
   }
   return access
 }
 
 /** Same 404 for a missing object and another organisation's object. */
 export function notFound(what: string): never {
-  throw createError({ statusCode: 404, statusMessage: `No such ${what}.` })
+  throw apiError(404, 'not-found', `No such ${what}.`)
 }

@@ -10,7 +10,7 @@ export function useStripe(): Stripe {
   if (client) return client
   const config = useRuntimeConfig()
   const key = String(config.stripeSecretKey || '')
-  if (!key) throw createError({ statusCode: 503, statusMessage: 'Billing is not configured on this server (no Stripe key). Start it through npm start.' })
+  if (!key) throw apiError(503, 'not-configured', 'Billing is not configured on this server (no Stripe key). Start it through npm start.')
   const host = String(config.stripeHost || '')
   const port = String(config.stripePort || '')
   const protocol = String(config.stripeProtocol || '')
@@ -39,13 +39,13 @@ export function cardEntryUrl(customerId: string, returnUrl: string): string | nu
 /** Turns an SDK failure into an answer a person can act on (502 when Stripe cannot be reached). */
 export function stripeFailure(error: unknown): never {
   if (error instanceof Stripe.errors.StripeConnectionError) {
-    throw createError({ statusCode: 502, statusMessage: 'The payment service cannot be reached just now. Try again in a minute.' })
+    throw apiError(502, 'service-unreachable', 'The payment service cannot be reached just now. Try again in a minute.')
   }
   if (error instanceof Stripe.errors.StripeCardError) {
-    throw createError({ statusCode: 402, statusMessage: `The card was refused: ${error.message}` })
+    throw apiError(402, 'payment-refused', `The card was refused: ${error.message}`)
   }
   if (error instanceof Stripe.errors.StripeError) {
-    throw createError({ statusCode: 502, statusMessage: `The payment service refused the request: ${error.message}` })
+    throw apiError(502, 'service-unreachable', `The payment service refused the request: ${error.message}`)
   }
   throw error
 }

@@ -7,12 +7,12 @@ export function parseOr400<S extends z.ZodType>(schema: S, input: unknown): z.ou
   if (result.success) return result.data
   const issues = result.error.issues.map(i => ({ path: i.path.map(String).join('.'), message: i.message }))
   const first = issues[0]!
-  throw createError({ statusCode: 400, statusMessage: first.path ? `${first.path}: ${first.message}` : first.message, data: { issues } })
+  throw apiError(400, 'invalid-input', first.path ? `${first.path}: ${first.message}` : first.message, { issues })
 }
 
 // h3's readValidatedBody replaces our message with "Validation Error"; these keep it.
 export async function readValidBody<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
-  return parseOr400(schema, await readBody(event).catch(() => { throw createError({ statusCode: 400, statusMessage: 'The request body is not valid JSON.' }) }))
+  return parseOr400(schema, await readBody(event).catch(() => { throw apiError(400, 'invalid-json', 'The request body is not valid JSON.') }))
 }
 
 export function readValidQuery<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {

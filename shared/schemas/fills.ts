@@ -1,5 +1,6 @@
 import { z } from 'zod'
-import { EXTRAPOLATION_RULES, FILL_METHOD_IDS, FILL_TRANSFORM_IDS, MAX_BENCH_METHODS, MAX_BENCH_POINTS, MIN_RATIONALE, gridPointCount, parseStep } from '../fills'
+import { EXTRAPOLATION_RULES, METHOD_IDS, TRANSFORM_IDS } from '../engine/contract'
+import { MAX_BENCH_METHODS, MAX_BENCH_POINTS, MIN_RATIONALE, gridPointCount, parseStep } from '../fills'
 
 // Shared by the fill bench form and the compare / fill handlers.
 const plainDecimal = z.string().trim().regex(/^-?\d+(\.\d+)?$/, { message: 'Enter a plain decimal like 20 or 0.25' })
@@ -15,9 +16,9 @@ export const benchGridSchema = z.object({
 })
 
 export const methodChoiceSchema = z.object({
-  method: z.enum(FILL_METHOD_IDS),
+  method: z.enum(METHOD_IDS),
   options: z.record(z.string().max(40), z.string().trim().max(60)).optional(),
-  transform: z.enum(FILL_TRANSFORM_IDS).optional(),
+  transform: z.enum(TRANSFORM_IDS).optional(),
   label: z.string().trim().min(1).max(80).optional(),
 })
 
@@ -30,7 +31,7 @@ export const moneyChoiceSchema = z.object({
 
 const settings = {
   grid: benchGridSchema,
-  transform: z.enum(FILL_TRANSFORM_IDS).default('none'),
+  transform: z.enum(TRANSFORM_IDS).default('none'),
   extrapolation: z.enum(EXTRAPOLATION_RULES).default('error'),
   precision: z.number().int().min(6).max(60).optional(),
   money: moneyChoiceSchema.optional(),

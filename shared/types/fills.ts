@@ -1,11 +1,9 @@
 // What the fill bench routes answer. The engine's result types are re-exported (types only, no engine code).
-import type { CompareResult, Diagnostics, MoneyImpact, ResolvedSpec } from '../../server/engine/types'
-import type { MethodListing } from '../../server/engine/registry'
-import type { TransformListing } from '../../server/engine/transform-listing'
+import type { CompareResult, Diagnostics, MethodListing, MoneyImpact, ResolvedSpec, TransformListing } from '../engine/contract'
 import type { TableKind, Axis, VersionStatus } from '../tables'
 import type { BenchGrid } from '../schemas/fills'
 
-export type { CompareEntry, CompareResult, Diagnostics, FillResult, MoneyDifference, MoneyFigure, MoneyImpact, ResolvedSpec, Span } from '../../server/engine/types'
+export type { CompareEntry, CompareResult, Diagnostics, FillResult, MoneyDifference, MoneyFigure, MoneyImpact, ResolvedSpec, Span } from '../engine/contract'
 export type { MethodListing, TransformListing }
 
 export interface FillMethodsDto {

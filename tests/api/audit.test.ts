@@ -2,7 +2,7 @@ import { Sequelize } from 'sequelize'
 import pg from 'pg'
 import { afterAll, describe, expect, it } from 'vitest'
 import { DEMO, LARKSPUR, closeOwnerDb, freshOrg, ownerDb, signedIn } from './helpers'
-import type { AuditPageDto, AuditVerifyDto } from '../../shared/types/audit'
+import type { AuditPageDto, AuditVerifyDto } from '#shared/types/audit'
 
 afterAll(closeOwnerDb)
 

@@ -1,7 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest'
 import { DEMO, FENWICK, LARKSPUR, closeOwnerDb, ownerDb, signedIn } from './helpers'
 import { filledDraft, newTable } from './review-helpers'
-import type { VersionDiffDto } from '../../shared/types/diff'
+import type { VersionDiffDto } from '#shared/types/diff'
 
 afterAll(closeOwnerDb)
 

@@ -3,8 +3,8 @@ import ExcelJS from 'exceljs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, DEMO, LARKSPUR, closeOwnerDb, multipartFile, ownerDb, postRefusable, signedIn } from './helpers'
 import { filledDraft, newTable } from './review-helpers'
-import { SHEET, readWorkbookCells, signBytes, canonicalBytes, keyIdOf, writeSignedWorkbook, contentFromSheets } from '../../server/lib/signing'
-import type { ExportVerdictDto } from '../../shared/types/exports'
+import { SHEET, readWorkbookCells, signBytes, canonicalBytes, keyIdOf, writeSignedWorkbook, contentFromSheets } from '~~/server/lib/signing'
+import type { ExportVerdictDto } from '#shared/types/exports'
 
 let auditor: Client, analyst: Client, felix: Client
 let curve: string

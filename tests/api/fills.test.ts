@@ -2,8 +2,8 @@
 // values (NUMERIC), stale drafts get 409, and a saved spec re-runs digit for digit.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import Decimal from 'decimal.js'
-import { compare, fill } from '../../server/engine/index'
-import type { CompareResult, FillRequest, ResolvedSpec } from '../../server/engine/types'
+import { compare, fill } from '~~/server/engine/index'
+import type { CompareResult, FillRequest, ResolvedSpec } from '~~/server/engine/types'
 import { Client, DEMO, LARKSPUR, FENWICK, closeOwnerDb, ownerDb, signedIn } from './helpers'
 import { lookupIds } from './route-matrix/ids'
 

@@ -88,7 +88,7 @@ describe('seats', () => {
     const refused = await invite(admin, slug, uniqueEmail('c'), 'analyst')
     expect(refused.status).toBe(409)
     expect(refused.body.statusMessage).toContain('Add seats')
-    expect(refused.body.data).toMatchObject({ reason: 'no-free-seat', billing: `/orgs/${slug}/billing` })
+    expect(refused.body.data).toMatchObject({ code: 'seats-full', billing: `/orgs/${slug}/billing` })
     expect((await admin.get<{ used: number }>(`/api/orgs/${slug}/seats`)).body.used).toBe(3)
     // cancelling an invitation frees its seat
     await admin.req('DELETE', `/api/orgs/${slug}/invitations/${a.body.id}`)

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, DEMO, LARKSPUR, closeOwnerDb, ownerDb, signedIn } from './helpers'
 import { filledDraft, newTable, statusOf } from './review-helpers'
 import { waitForMail } from './fakes'
-import type { ReviewStateDto } from '../../shared/types/review'
+import type { ReviewStateDto } from '#shared/types/review'
 
 const base = (tableId: string, n: number) => `/api/orgs/${LARKSPUR}/tables/${tableId}/versions/${n}`
 let analyst: Client, actuary: Client, felix: Client, auditor: Client

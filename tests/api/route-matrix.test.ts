@@ -5,6 +5,7 @@ import { Client, DEMO, FENWICK, LARKSPUR, closeOwnerDb, signedIn } from './helpe
 import { ROUTES } from './route-matrix/index'
 import type { Caller, MatrixContext } from './route-matrix/types'
 import { lookupIds } from './route-matrix/ids'
+import { API_ERROR_CODES } from '#shared/api-errors'
 
 /** Every route file under server/api as "METHOD /api/path". */
 function routeFiles(dir = 'server/api', prefix = '/api'): string[] {
@@ -56,6 +57,9 @@ describe('route matrix', () => {
         const r = await client.req(method, target, method === 'GET' ? undefined : (entry!.body ?? {}))
         const ok = wanted === 'pass' ? ![401, 403, 404].includes(r.status) && r.status < 500 : r.status === wanted
         if (!ok) problems.push(`${caller}: expected ${wanted}, got ${r.status} ${JSON.stringify(r.body).slice(0, 160)}`)
+        // every refusal carries a machine-readable code (shared/api-errors.ts) that the client decides on
+        const code = (r.body as { data?: { code?: unknown } } | null)?.data?.code
+        if (r.status >= 400 && r.status < 500 && !(API_ERROR_CODES as readonly unknown[]).includes(code)) problems.push(`${caller}: ${r.status} without a known data.code (${String(code)})`)
       }
       expect(problems).toEqual([])
     })

@@ -1,8 +1,8 @@
 import Decimal from 'decimal.js'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { canonicalDecimal, cmpDecimal, parseNumberText, shiftPointLeft, toPerUnit } from '../../shared/decimal-text'
-import { pointsContentHash } from '../../server/lib/points-hash'
+import { canonicalDecimal, cmpDecimal, parseNumberText, shiftPointLeft, toPerUnit } from '#shared/decimal-text'
+import { pointsContentHash } from '~~/server/lib/points-hash'
 
 // The string fast paths are checked against decimal.js (an outside general-purpose library).
 const plain = fc.tuple(fc.boolean(), fc.nat({ max: 100000 }), fc.option(fc.stringMatching(/^\d{1,12}$/)))

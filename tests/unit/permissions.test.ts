@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { can, PERMISSIONS, ROLES, type Permission, type Role } from '../../shared/permissions'
+import { can, PERMISSIONS, ROLES, type Permission, type Role } from '#shared/permissions'
 
 // DOMAIN.md section 5, transcribed row by row: the table the product must enforce.
 const TABLE: Record<Permission, Record<Role, boolean>> = {

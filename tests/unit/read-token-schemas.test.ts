@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { readTokenCreateSchema, readTokenFormSchema } from '../../shared/schemas/read-tokens'
+import { readTokenCreateSchema, readTokenFormSchema } from '#shared/schemas/read-tokens'
 
 const messages = (r: { success: boolean, error?: { issues: { path: PropertyKey[], message: string }[] } }) =>
   Object.fromEntries((r.error?.issues ?? []).map(i => [i.path.join('.'), i.message]))

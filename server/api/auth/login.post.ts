@@ -1,7 +1,7 @@
-import { loginSchema } from '../../../shared/schemas/auth'
-import { DUMMY_HASH, verifyPassword } from '../../lib/password'
-import { User } from '../../database/models'
-import { describeMe } from '../../services/me'
+import { loginSchema } from '#shared/schemas/auth'
+import { DUMMY_HASH, verifyPassword } from '~~/server/lib/password'
+import { User } from '~~/server/database/models'
+import { describeMe } from '~~/server/services/me'
 
 export default defineEventHandler(async (event) => {
   const { email, password } = await readValidBody(event, loginSchema)
@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   if (wait > 0) {
     setResponseHeader(event, 'retry-after', wait)
     await audit(event, { action: 'auth.sign-in', outcome: 'denied', detail: { email, reason: 'throttled' }, actor: null })
-    throw createError({ statusCode: 429, statusMessage: `Too many failed sign-ins. Try again in ${Math.ceil(wait / 60)} minute(s).` })
+    throw apiError(429, 'rate-limited', `Too many failed sign-ins. Try again in ${Math.ceil(wait / 60)} minute(s).`)
   }
   const user = await User.findOne({ where: { email } })
   // Verify even for an unknown e-mail so both answers take the same time and say the same thing.
@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
   if (!user || !matches) {
     await recordLoginFailure(email, ip)
     await audit(event, { action: 'auth.sign-in', outcome: 'failed', detail: { email }, actor: null })
-    throw createError({ statusCode: 401, statusMessage: 'That e-mail and password do not match an account. Check both and try again.' })
+    throw apiError(401, 'wrong-credentials', 'That e-mail and password do not match an account. Check both and try again.')
   }
   await clearAccountFailures(email)
   await startSession(event, user)

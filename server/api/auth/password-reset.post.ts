@@ -1,5 +1,5 @@
-import { passwordResetRequestSchema } from '../../../shared/schemas/password-reset'
-import { requestPasswordReset } from '../../services/password-reset'
+import { passwordResetRequestSchema } from '#shared/schemas/password-reset'
+import { requestPasswordReset } from '~~/server/services/password-reset'
 
 const ANSWER = { ok: true, message: 'If an account uses this address, we have sent it a link to set a new password. The link works for one hour.' }
 

@@ -1,9 +1,9 @@
-import { signupSchema } from '../../../shared/schemas/auth'
-import { hashPassword } from '../../lib/password'
-import { Membership, Organisation, User } from '../../database/models'
-import { freeSlug } from '../../services/organisations'
-import { describeMe } from '../../services/me'
-import { signupAttemptMail } from '../../services/mail-templates'
+import { signupSchema } from '#shared/schemas/auth'
+import { hashPassword } from '~~/server/lib/password'
+import { Membership, Organisation, User } from '~~/server/database/models'
+import { freeSlug } from '~~/server/services/organisations'
+import { describeMe } from '~~/server/services/me'
+import { signupAttemptMail } from '~~/server/services/mail-templates'
 
 const IN_USE = 'This e-mail cannot be used to sign up. If it is yours, sign in instead.'
 
@@ -15,7 +15,7 @@ export default defineEventHandler(async (event) => {
   const wait = await signupRetryAfter(ip)
   if (wait > 0) {
     setResponseHeader(event, 'retry-after', wait)
-    throw createError({ statusCode: 429, statusMessage: `Too many sign-up attempts from this network. Try again in ${Math.ceil(wait / 60)} minute(s).` })
+    throw apiError(429, 'rate-limited', `Too many sign-up attempts from this network. Try again in ${Math.ceil(wait / 60)} minute(s).`)
   }
   const passwordHash = await hashPassword(input.password)
   const user = await inTransaction(async (transaction) => {
@@ -32,7 +32,7 @@ export default defineEventHandler(async (event) => {
     await recordSignupRefusal(ip)
     await sendMail(signupAttemptMail(input.email, appLink('/signin'), appLink('/forgot-password')))
       .catch(error => console.error('[signup] notice to the existing account not sent:', error))
-    throw createError({ statusCode: 409, statusMessage: IN_USE })
+    throw apiError(409, 'name-taken', IN_USE)
   }
   await startSession(event, user)
   setResponseStatus(event, 201)

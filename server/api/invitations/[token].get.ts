@@ -1,5 +1,5 @@
-import type { InvitationPreviewDto } from '../../../shared/types/api'
-import { previewInvitation } from '../../services/invitations'
+import type { InvitationPreviewDto } from '#shared/types/api'
+import { previewInvitation } from '~~/server/services/invitations'
 
 // Public: what an invitation link offers (organisation, address, role). 404 for a used, cancelled or expired link.
 export default defineEventHandler(async (event): Promise<InvitationPreviewDto> => {

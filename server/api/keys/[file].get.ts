@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { Organisation } from '../../database/models'
-import { listSigningKeys } from '../../services/signing-keys'
+import { Organisation } from '~~/server/database/models'
+import { listSigningKeys } from '~~/server/services/signing-keys'
 
 const paramsSchema = z.object({ file: z.string().regex(/^[a-z0-9][a-z0-9-]{1,62}\.json$/, 'Ask for /api/keys/<organisation>.json') })
 

@@ -1,24 +1,24 @@
 import type Stripe from 'stripe'
-import { processStripeEvent } from '../../services/stripe-events'
+import { processStripeEvent } from '~~/server/services/stripe-events'
 
 // Stripe's webhook: the signature is checked on the raw body (default tolerance 300 s); 400 when it does not verify.
 export default defineEventHandler(async (event) => {
   const secret = String(useRuntimeConfig().stripeWebhookSecret || '')
-  if (!secret) throw createError({ statusCode: 503, statusMessage: 'Webhooks are not configured on this server.' })
+  if (!secret) throw apiError(503, 'not-configured', 'Webhooks are not configured on this server.')
   const raw = await readRawBody(event, false)
   const signature = getRequestHeader(event, 'stripe-signature')
-  if (!raw || !signature) throw createError({ statusCode: 400, statusMessage: 'A signed Stripe event is required.' })
+  if (!raw || !signature) throw apiError(400, 'invalid-input', 'A signed Stripe event is required.')
   let stripeEvent: Stripe.Event
   try {
     stripeEvent = useStripe().webhooks.constructEvent(raw, signature, secret)
   } catch {
-    throw createError({ statusCode: 400, statusMessage: 'The signature does not verify (wrong secret, altered body or a timestamp older than 5 minutes).' })
+    throw apiError(400, 'invalid-input', 'The signature does not verify (wrong secret, altered body or a timestamp older than 5 minutes).')
   }
   try {
     return { received: true, outcome: await processStripeEvent(stripeEvent) }
   } catch (error) {
     // not recorded: Stripe delivers the event again later
     console.error(`[webhook] ${stripeEvent.type} ${stripeEvent.id} not processed: ${(error as Error).message}`)
-    throw createError({ statusCode: 500, statusMessage: 'The event could not be processed now; send it again later.' })
+    throw apiError(500, 'try-later', 'The event could not be processed now; send it again later.')
   }
 })

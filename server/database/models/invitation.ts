@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
-import type { Role } from '../../../shared/permissions'
+import type { Role } from '#shared/permissions'
 
 // An invitation to join an organisation; the link's token is stored only as its SHA-256 hash.
 export class Invitation extends Model<InferAttributes<Invitation>, InferCreationAttributes<Invitation>> {

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type NonAttribute, type Sequelize } from 'sequelize'
-import type { Role } from '../../../shared/permissions'
+import type { Role } from '#shared/permissions'
 import type { Organisation } from './organisation'
 import type { User } from './user'
 

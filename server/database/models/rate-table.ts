@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
-import type { Axis, AxisUnit, TableKind, ValueUnit } from '../../../shared/tables'
+import type { Axis, AxisUnit, TableKind, ValueUnit } from '#shared/tables'
 
 export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAttributes<RateTable>> {
   declare id: CreationOptional<string>

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
-import type { VersionStatus } from '../../../shared/tables'
+import type { VersionStatus } from '#shared/tables'
 
 // lock_version is the optimistic lock: a save names the lock it read; a stale one gets 409.
 export class TableVersion extends Model<InferAttributes<TableVersion>, InferCreationAttributes<TableVersion>> {

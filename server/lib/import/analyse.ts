@@ -1,11 +1,11 @@
-import type { Axis, AxisUnit, TableKind, ValueUnit } from '../../../shared/tables'
-import { parseNumberText } from '../../../shared/decimal-text'
-import type { ColumnSuggestion } from '../../../shared/types/tables'
+import type { Axis, AxisUnit, TableKind, ValueUnit } from '#shared/tables'
+import { parseNumberText } from '#shared/decimal-text'
+import type { ColumnSuggestion } from '#shared/types/tables'
 import type { StoredSheet } from './read-workbook'
 
-import { columnLetter } from '../../../shared/cells'
+import { columnLetter } from '#shared/cells'
 
-export { cellAddress, columnLetter } from '../../../shared/cells'
+export { cellAddress, columnLetter } from '#shared/cells'
 
 const isNumber = (v: string | null | undefined) => !!v && parseNumberText(v).ok
 const filled = (row: (string | null)[] | undefined) => (row ?? []).filter(v => v !== null && v !== '')

@@ -1,6 +1,6 @@
 // Caps that keep a hostile or oversized spreadsheet from exhausting the server.
 // Each one has a test in tests/api/import-limits.test.ts.
-import { IMPORT_COLUMNS_CAP, IMPORT_UPLOAD_BYTES } from '../../../shared/import-caps'
+import { IMPORT_COLUMNS_CAP, IMPORT_UPLOAD_BYTES } from '#shared/import-caps'
 
 export const IMPORT_LIMITS = {
   /** request body bytes, counted as they arrive (never taken from Content-Length) */

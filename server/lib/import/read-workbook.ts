@@ -1,7 +1,7 @@
 import { Readable } from 'node:stream'
 import ExcelJS from 'exceljs'
 import { parse as parseCsv } from 'csv-parse/sync'
-import { D, canonicalDecimal } from '../../../shared/decimal-text'
+import { D, canonicalDecimal } from '#shared/decimal-text'
 import { IMPORT_LIMITS, ImportRefused } from './limits'
 import { guardXlsxZip } from './zip-guard'
 

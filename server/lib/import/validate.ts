@@ -1,8 +1,8 @@
-import { canonicalDecimal, cmpDecimal, parseNumberText, toPerUnit } from '../../../shared/decimal-text'
-import { checkAxis, checkValue } from '../../../shared/table-rules'
-import { AXIS_LABELS } from '../../../shared/tables'
-import type { ImportMapping } from '../../../shared/schemas/imports'
-import type { ImportFinding, PointDto } from '../../../shared/types/tables'
+import { canonicalDecimal, cmpDecimal, parseNumberText, toPerUnit } from '#shared/decimal-text'
+import { checkAxis, checkValue } from '#shared/table-rules'
+import { AXIS_LABELS } from '#shared/tables'
+import type { ImportMapping } from '#shared/schemas/imports'
+import type { ImportFinding, PointDto } from '#shared/types/tables'
 import { cellAddress } from './analyse'
 import type { StoredSheet } from './read-workbook'
 

@@ -7,7 +7,7 @@ import { readFileSync } from 'node:fs'
 import { dirname, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
-import { fill, type MethodId } from '../../../server/engine'
+import { fill, type MethodId } from '~~/server/engine'
 
 type Span = { from: string, to: string, intervals: number } | null
 interface BumpFixture {

@@ -1,8 +1,8 @@
 import Decimal from 'decimal.js'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { compare, compareAsync } from '../../../server/engine'
-import type { FillResult, MethodSpec } from '../../../server/engine/types'
+import { compare, compareAsync } from '~~/server/engine'
+import type { FillResult, MethodSpec } from '~~/server/engine/types'
 
 // The pairwise largest difference shortlists points in binary floating point; it must still equal the
 // exhaustive decimal answer (value and first place), including near ties far below double precision.

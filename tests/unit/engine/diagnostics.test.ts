@@ -2,7 +2,7 @@
 // (DOMAIN.md section 3; Chapra, quadratic splines); roughness as sums of squared differences (Whittaker 1923);
 // forward rates from discount factors (Hull, Options, Futures and Other Derivatives, ch. 4).
 import { describe, expect, it } from 'vitest'
-import { compare, fill, METHODS, ENGINE_VERSION } from '../../../server/engine'
+import { compare, fill, METHODS, ENGINE_VERSION } from '~~/server/engine'
 import { knots } from './helpers'
 
 const abridged = knots([20, 25, 30, 35, 40, 45, 50, 55, 60], ['0.00060', '0.00065', '0.00075', '0.00095', '0.00125', '0.00175', '0.00260', '0.00400', '0.00640'])

@@ -1,6 +1,6 @@
 // Messages a user acts on: each names the point and the reason. Source: the wording (e.g. "Point 3 (x = 45): y 'abc' is not a number").
 import { describe, expect, it } from 'vitest'
-import { EngineError, fill, type FillRequest } from '../../../server/engine'
+import { EngineError, fill, type FillRequest } from '~~/server/engine'
 import { T, knots } from './helpers'
 
 const grid = { from: '20', to: '40', step: '5' }

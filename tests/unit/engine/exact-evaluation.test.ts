@@ -6,11 +6,11 @@
 import fc from 'fast-check'
 import Decimal from 'decimal.js'
 import { describe, expect, it } from 'vitest'
-import { decimalContext, exp } from '../../../server/engine/decimal'
-import { evaluateAscending } from '../../../server/engine/evaluate'
-import { roundScaled, toScaled } from '../../../server/engine/exact'
-import type { PiecewisePolynomial } from '../../../server/engine/piecewise'
-import { fill } from '../../../server/engine'
+import { decimalContext, exp } from '~~/server/engine/decimal'
+import { evaluateAscending } from '~~/server/engine/evaluate'
+import { roundScaled, toScaled } from '~~/server/engine/exact'
+import type { PiecewisePolynomial } from '~~/server/engine/piecewise'
+import { fill } from '~~/server/engine'
 
 const W = decimalContext(50)
 const Big = Decimal.clone({ precision: 1000, rounding: Decimal.ROUND_HALF_EVEN })

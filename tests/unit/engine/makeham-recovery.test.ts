@@ -4,7 +4,7 @@
 // fill every age 20..100 and measure the largest relative error of q_x per method and transform.
 import Decimal from 'decimal.js'
 import { describe, expect, it } from 'vitest'
-import { fill, type MethodId, type TransformId } from '../../../server/engine'
+import { fill, type MethodId, type TransformId } from '~~/server/engine'
 
 const M = Decimal.clone({ precision: 60, rounding: Decimal.ROUND_HALF_EVEN })
 const A = new M('0.00022')

@@ -5,7 +5,7 @@
 // D = (1 + r)/r - N / ((1 + r)^N - 1) (closed form; e.g. Macaulay 1938, standard fixed-income texts).
 import Decimal from 'decimal.js'
 import { describe, expect, it } from 'vitest'
-import { fill } from '../../../server/engine'
+import { fill } from '~~/server/engine'
 import { close, knots } from './helpers'
 
 const H = Decimal.clone({ precision: 60 })

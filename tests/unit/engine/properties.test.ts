@@ -4,7 +4,7 @@
 import fc from 'fast-check'
 import Decimal from 'decimal.js'
 import { describe, expect, it } from 'vitest'
-import { fill, type MethodId } from '../../../server/engine'
+import { fill, type MethodId } from '~~/server/engine'
 
 const ALL: MethodId[] = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima']
 const H = Decimal.clone({ precision: 60 })

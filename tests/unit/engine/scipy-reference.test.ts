@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
-import { fill, type MethodId } from '../../../server/engine'
+import { fill, type MethodId } from '~~/server/engine'
 import { T } from './helpers'
 
 interface Fixture {

@@ -5,10 +5,10 @@
 // make_interp_spline(k=2, bc_type=([(2, 0.0)], None)), which gives f(5) = 0.66 (float 0.66000000000000003).
 import Decimal from 'decimal.js'
 import { describe, expect, it } from 'vitest'
-import { fill } from '../../../server/engine'
-import { decimalContext } from '../../../server/engine/decimal'
-import { quadratic } from '../../../server/engine/methods/quadratic'
-import { globalCoefficients } from '../../../server/engine/piecewise'
+import { fill } from '~~/server/engine'
+import { decimalContext } from '~~/server/engine/decimal'
+import { quadratic } from '~~/server/engine/methods/quadratic'
+import { globalCoefficients } from '~~/server/engine/piecewise'
 import { knots } from './helpers'
 
 const data = knots(['3.0', '4.5', '7.0', '9.0'], ['2.5', '1.0', '2.5', '0.5'])

@@ -1,9 +1,9 @@
 // Transforms: forward then inverse returns the value at the stated precision, and every knot is reproduced through
 // the transform. Closed forms: logit^-1(logit q) = q, 1 - exp(ln(1 - q)) = q, exp(-(-t ln(1 + r))/t) - 1 = r (algebra).
 import { describe, expect, it } from 'vitest'
-import { fill, type MethodId, type TransformId } from '../../../server/engine'
-import { decimalContext, exp, roundTo } from '../../../server/engine/decimal'
-import { TRANSFORMS } from '../../../server/engine/transforms'
+import { fill, type MethodId, type TransformId } from '~~/server/engine'
+import { decimalContext, exp, roundTo } from '~~/server/engine/decimal'
+import { TRANSFORMS } from '~~/server/engine/transforms'
 import { knots } from './helpers'
 
 const METHODS: MethodId[] = ['linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima']

@@ -1,5 +1,5 @@
 import fc from 'fast-check'
-import { generateSigningKey, keyIdOf, signBytes, canonicalBytes, SIGNED_FORMAT, type Pair, type SignedContent } from '../../../server/lib/signing'
+import { generateSigningKey, keyIdOf, signBytes, canonicalBytes, SIGNED_FORMAT, type Pair, type SignedContent } from '~~/server/lib/signing'
 import { createPrivateKey } from 'node:crypto'
 
 /** One organisation key for a test run. */

@@ -4,8 +4,8 @@ import { tmpdir } from 'node:os'
 import path from 'node:path'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { writeSignedWorkbook } from '../../../server/lib/signing'
-import { extractForOpenssl } from '../../../scripts/verify-export'
+import { writeSignedWorkbook } from '~~/server/lib/signing'
+import { extractForOpenssl } from '~~/scripts/verify-export'
 import { arbitraryContent, signatureOf, testKey } from './fixtures'
 
 // Outside reference: the OpenSSL command-line tool (pkeyutl with Ed25519, dgst -sha256) checks what the

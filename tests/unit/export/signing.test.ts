@@ -2,8 +2,8 @@ import { verify as nodeVerify, createPublicKey } from 'node:crypto'
 import ExcelJS from 'exceljs'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { canonicalBytes, contentFromSheets, readWorkbookCells, signatureSheetField, verifyWorkbookCells, writeSignedWorkbook, SHEET } from '../../../server/lib/signing'
-import { canonicalJson } from '../../../server/lib/canonical-json'
+import { canonicalBytes, contentFromSheets, readWorkbookCells, signatureSheetField, verifyWorkbookCells, writeSignedWorkbook, SHEET } from '~~/server/lib/signing'
+import { canonicalJson } from '~~/server/lib/canonical-json'
 import { arbitraryContent, signatureOf, testKey } from './fixtures'
 
 const key = testKey()

@@ -1,7 +1,7 @@
 import { createServer, type IncomingMessage, type Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import Stripe from 'stripe'
-import { FakeStripe, type FakeStripeOptions } from '../../../fakes/stripe/app.ts'
+import { FakeStripe, type FakeStripeOptions } from '~~/fakes/stripe/app.ts'
 
 export const TEST_KEY = 'sk_test_knotwork_unit'
 

@@ -1,6 +1,6 @@
 import nodemailer from 'nodemailer'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { FakeSmtp } from '../../../fakes/smtp/app.ts'
+import { FakeSmtp } from '~~/fakes/smtp/app.ts'
 
 let fake: FakeSmtp
 let ports: { smtp: number; http: number }

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type Stripe from 'stripe'
 import { advance, seatSetup, startFakeStripe } from './helpers.ts'
-import type { FakeStripe } from '../../../fakes/stripe/app.ts'
+import type { FakeStripe } from '~~/fakes/stripe/app.ts'
 
 // Expected proration amounts follow Stripe's documented per-second proration
 // (docs.stripe.com/billing/subscriptions/prorations; formula from memory):

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type Stripe from 'stripe'
 import { advance, seatSetup, startFakeStripe } from './helpers.ts'
-import type { FakeStripe } from '../../../fakes/stripe/app.ts'
+import type { FakeStripe } from '~~/fakes/stripe/app.ts'
 
 // Test card numbers and their outcomes are Stripe's documented test cards (docs.stripe.com/testing, from memory):
 // 4000000000000002 generic decline, 4000000000009995 insufficient_funds.

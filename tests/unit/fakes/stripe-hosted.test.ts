@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type Stripe from 'stripe'
 import { seatSetup, startFakeStripe } from './helpers.ts'
-import type { FakeStripe } from '../../../fakes/stripe/app.ts'
+import type { FakeStripe } from '~~/fakes/stripe/app.ts'
 
 let fake: FakeStripe
 let stripe: Stripe

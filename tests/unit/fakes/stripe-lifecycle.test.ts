@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type Stripe from 'stripe'
 import { advance, seatSetup, startFakeStripe } from './helpers.ts'
-import type { FakeStripe } from '../../../fakes/stripe/app.ts'
+import type { FakeStripe } from '~~/fakes/stripe/app.ts'
 
 // Behaviour checked against Stripe's subscription docs (docs.stripe.com/billing/subscriptions/overview, from memory):
 // an unpaid first invoice expires the subscription after 23 hours; cancel_at_period_end ends it at the period end;

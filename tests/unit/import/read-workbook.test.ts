@@ -2,7 +2,7 @@
 import { readFileSync } from 'node:fs'
 import ExcelJS from 'exceljs'
 import { describe, expect, it } from 'vitest'
-import { readInMemory, readStreaming, readWorkbook } from '../../../server/lib/import/read-workbook'
+import { readInMemory, readStreaming, readWorkbook } from '~~/server/lib/import/read-workbook'
 
 const demo = readFileSync('public/demo/larkspur-pensioner-study-2026.xlsx')
 

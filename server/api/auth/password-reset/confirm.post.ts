@@ -1,5 +1,5 @@
-import { passwordResetConfirmSchema } from '../../../../shared/schemas/password-reset'
-import { confirmPasswordReset } from '../../../services/password-reset'
+import { passwordResetConfirmSchema } from '#shared/schemas/password-reset'
+import { confirmPasswordReset } from '~~/server/services/password-reset'
 
 // Sets a new password from an e-mailed link; ends every session of that person.
 export default defineEventHandler(async (event) => {

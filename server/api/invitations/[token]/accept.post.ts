@@ -1,5 +1,5 @@
-import { acceptInvitation } from '../../../services/invitation-accept'
-import { describeMe } from '../../../services/me'
+import { acceptInvitation } from '~~/server/services/invitation-accept'
+import { describeMe } from '~~/server/services/me'
 
 // Public: accept with a new account (name + password) or with the invited address's existing account.
 export default defineEventHandler(async (event) => {

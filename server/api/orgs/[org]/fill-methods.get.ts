@@ -1,4 +1,4 @@
-import { fillMethods } from '../../../services/fills'
+import { fillMethods } from '~~/server/services/fills'
 
 // The engine's methods, options and transforms, for the fill bench's pickers.
 export default defineEventHandler(async (event) => {

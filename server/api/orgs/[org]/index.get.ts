@@ -1,4 +1,4 @@
-import { permissionsOf } from '../../../../shared/permissions'
+import { permissionsOf } from '#shared/permissions'
 
 export default defineEventHandler(async (event) => {
   const { org, role } = await requireMember(event)

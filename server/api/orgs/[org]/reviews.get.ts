@@ -1,4 +1,4 @@
-import { reviewQueue } from '../../../services/review-queries'
+import { reviewQueue } from '~~/server/services/review-queries'
 
 // Versions awaiting a second check, oldest first; `yours` marks those the caller may not sign off.
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
-import type { SeatsDto } from '../../../../shared/types/api'
-import { ensureBillingAccount, seatUsage } from '../../../services/seats'
+import type { SeatsDto } from '#shared/types/api'
+import { ensureBillingAccount, seatUsage } from '~~/server/services/seats'
 
 // Seats used (members + open invitations) and purchased; read locally, never from Stripe.
 export default defineEventHandler(async (event): Promise<SeatsDto> => {

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { requireReadToken } from '../../../services/read-tokens'
-import { signedOffPayload } from '../../../services/exports'
+import { requireReadToken } from '~~/server/services/read-tokens'
+import { signedOffPayload } from '~~/server/services/exports'
 
 const paramsSchema = z.object({ table: z.string().max(64) })
 const querySchema = z.object({ version: z.coerce.number().int().positive().max(1_000_000).optional() })

@@ -1,6 +1,6 @@
 import { QueryTypes } from 'sequelize'
-import { requireReadToken } from '../../../services/read-tokens'
-import type { ReadTableSummaryDto } from '../../../../shared/types/read-tokens'
+import { requireReadToken } from '~~/server/services/read-tokens'
+import type { ReadTableSummaryDto } from '#shared/types/read-tokens'
 
 // For production systems (Authorization: Bearer <read token>): the organisation's tables that have a signed-off version
 // (only those the token is limited to, if it is).

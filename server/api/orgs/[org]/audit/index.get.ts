@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { listAudit } from '../../../../services/audit-trail'
+import { listAudit } from '~~/server/services/audit-trail'
 
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Dates are written YYYY-MM-DD')
   .refine(d => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)) && new Date(`${d}T00:00:00Z`).toISOString().startsWith(d), 'That is not a calendar date')

@@ -1,5 +1,5 @@
-import type { BillingDto } from '../../../../../shared/types/api'
-import { describeBilling } from '../../../../services/billing'
+import type { BillingDto } from '#shared/types/api'
+import { describeBilling } from '~~/server/services/billing'
 
 // Plan, seats, status, card and invoices. The first call starts the Stripe customer and subscription.
 export default defineEventHandler(async (event): Promise<BillingDto> => {

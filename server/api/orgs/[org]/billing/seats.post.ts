@@ -1,5 +1,5 @@
-import { seatsSchema } from '../../../../../shared/schemas/members'
-import { changeSeats } from '../../../../services/billing'
+import { seatsSchema } from '#shared/schemas/members'
+import { changeSeats } from '~~/server/services/billing'
 
 // Sets the number of purchased seats; the proration is invoiced at once.
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
-import type { BillingStatusDto } from '../../../../../shared/types/api'
-import { BillingAccount } from '../../../../database/models'
-import { ATTENTION_STATUSES } from '../../../../services/billing'
+import type { BillingStatusDto } from '#shared/types/api'
+import { BillingAccount } from '~~/server/database/models'
+import { ATTENTION_STATUSES } from '~~/server/services/billing'
 
 // The stored billing status, for the failed-payment banner (local read, no Stripe call).
 export default defineEventHandler(async (event): Promise<BillingStatusDto> => {

@@ -8,6 +8,6 @@ export default defineEventHandler(async (event) => {
   const { run } = readValidParams(event, paramsSchema)
   const access = await requirePermission(event, 'fills:run')
   const progress = getProgress(access.user.id, run)
-  if (!progress) throw createError({ statusCode: 404, statusMessage: 'No comparison with this run id is in progress.' })
+  if (!progress) throw apiError(404, 'not-found', 'No comparison with this run id is in progress.')
   return { done: progress.done, total: progress.total }
 })

@@ -1,6 +1,6 @@
-import { ImportRefused } from '../../../../lib/import/limits'
-import { readUpload } from '../../../../services/upload'
-import { verifyUpload } from '../../../../services/exports'
+import { ImportRefused } from '~~/server/lib/import/limits'
+import { readUpload } from '~~/server/services/upload'
+import { verifyUpload } from '~~/server/services/exports'
 
 // A signed workbook up to this size is read (counted as the bytes arrive; the upload stops at the cap).
 const MAX_BYTES = 10 * 1024 * 1024
@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
     const { fileName, data } = await readUpload(event, MAX_BYTES)
     return await verifyUpload(event, access, fileName, data)
   } catch (error) {
-    if (error instanceof ImportRefused) throw createError({ statusCode: error.statusCode, statusMessage: error.message })
+    if (error instanceof ImportRefused) throw apiError(error.statusCode, 'import-refused', error.message)
     throw error
   }
 })

@@ -1,6 +1,6 @@
-import { IMPORT_LIMITS } from '../../../../lib/import/limits'
-import { createImport, refusal } from '../../../../services/imports'
-import { readUpload } from '../../../../services/upload'
+import { IMPORT_LIMITS } from '~~/server/lib/import/limits'
+import { createImport, refusal } from '~~/server/services/imports'
+import { readUpload } from '~~/server/services/upload'
 
 // Body: multipart/form-data with one field "file" (.xlsx or .csv). Counted as it arrives.
 export default defineEventHandler(async (event) => {

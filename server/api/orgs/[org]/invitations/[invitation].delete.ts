@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { cancelInvitation } from '../../../../services/invitations'
+import { cancelInvitation } from '~~/server/services/invitations'
 
 const params = z.object({ invitation: z.string().max(64) })
 

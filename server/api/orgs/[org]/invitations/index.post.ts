@@ -1,5 +1,5 @@
-import { inviteSchema } from '../../../../../shared/schemas/members'
-import { createInvitation } from '../../../../services/invitations'
+import { inviteSchema } from '#shared/schemas/members'
+import { createInvitation } from '~~/server/services/invitations'
 
 // Invites an address with a role and e-mails the link; 409 when every purchased seat is in use.
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { removeMember } from '../../../../services/members'
+import { removeMember } from '~~/server/services/members'
 
 const params = z.object({ user: z.uuid({ message: 'No such member.' }) })
 

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { roleChangeSchema } from '../../../../../shared/schemas/members'
-import { changeRole } from '../../../../services/members'
+import { roleChangeSchema } from '#shared/schemas/members'
+import { changeRole } from '~~/server/services/members'
 
 const params = z.object({ user: z.uuid({ message: 'No such member.' }) })
 

@@ -1,5 +1,5 @@
-import type { MemberDto } from '../../../../../shared/types/api'
-import { Membership, User } from '../../../../database/models'
+import type { MemberDto } from '#shared/types/api'
+import { Membership, User } from '~~/server/database/models'
 
 export default defineEventHandler(async (event): Promise<MemberDto[]> => {
   const { org } = await requirePermission(event, 'members:manage')

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { revokeReadToken } from '../../../../services/read-tokens'
+import { revokeReadToken } from '~~/server/services/read-tokens'
 
 const paramsSchema = z.object({ token: z.string().uuid({ message: 'Not a read token id' }) })
 

@@ -1,4 +1,4 @@
-import { listReadTokens } from '../../../../services/read-tokens'
+import { listReadTokens } from '~~/server/services/read-tokens'
 
 // The organisation's read tokens (names, hints, last use; never the tokens themselves).
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
-import { readTokenCreateSchema } from '../../../../../shared/schemas/read-tokens'
-import { createReadToken } from '../../../../services/read-tokens'
+import { readTokenCreateSchema } from '#shared/schemas/read-tokens'
+import { createReadToken } from '~~/server/services/read-tokens'
 
 // Creates a read token for a production system, for every signed-off table or only some; the answer carries the token,
 // which is not shown again.

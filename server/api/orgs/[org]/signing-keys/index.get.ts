@@ -1,4 +1,4 @@
-import { listSigningKeys } from '../../../../services/signing-keys'
+import { listSigningKeys } from '~~/server/services/signing-keys'
 
 // The organisation's current and retired Ed25519 public keys as a JWK set (every member may read them).
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { rotateSigningKey } from '../../../../services/signing-keys'
+import { rotateSigningKey } from '~~/server/services/signing-keys'
 
 // Retires the active signing key and creates a new one; earlier exports keep verifying against the retired key.
 export default defineEventHandler(async (event) => {

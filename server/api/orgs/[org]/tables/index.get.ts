@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { TABLE_KINDS, VERSION_STATUSES } from '../../../../../shared/tables'
-import { listTables } from '../../../../services/tables'
+import { TABLE_KINDS, VERSION_STATUSES } from '#shared/tables'
+import { listTables } from '~~/server/services/tables'
 
 const querySchema = z.object({
   q: z.string().trim().max(120).optional(),

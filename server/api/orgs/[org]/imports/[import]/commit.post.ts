@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { importCommitSchema } from '../../../../../../shared/schemas/imports'
-import { commitImport } from '../../../../../services/imports'
+import { importCommitSchema } from '#shared/schemas/imports'
+import { commitImport } from '~~/server/services/imports'
 
 const paramsSchema = z.object({ import: z.string().max(64) })
 

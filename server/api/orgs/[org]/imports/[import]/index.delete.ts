@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { deleteImport } from '../../../../../services/imports'
+import { deleteImport } from '~~/server/services/imports'
 
 const paramsSchema = z.object({ import: z.string().max(64) })
 

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { describeImport } from '../../../../../services/imports'
+import { describeImport } from '~~/server/services/imports'
 
 const paramsSchema = z.object({ import: z.string().max(64) })
 const querySchema = z.object({ sheet: z.string().max(200).optional(), headerRow: z.coerce.number().int().min(0).optional() })

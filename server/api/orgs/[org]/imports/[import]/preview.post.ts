@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { importMappingSchema } from '../../../../../../shared/schemas/imports'
-import { previewImport } from '../../../../../services/imports'
+import { importMappingSchema } from '#shared/schemas/imports'
+import { previewImport } from '~~/server/services/imports'
 
 const paramsSchema = z.object({ import: z.string().max(64) })
 

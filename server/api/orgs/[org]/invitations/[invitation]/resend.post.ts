@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { resendInvitation } from '../../../../../services/invitations'
+import { resendInvitation } from '~~/server/services/invitations'
 
 const params = z.object({ invitation: z.string().max(64) })
 

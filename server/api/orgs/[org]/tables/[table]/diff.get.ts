@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { tableParamsSchema } from '../../../../../../shared/schemas/route-params'
-import { diffVersions } from '../../../../../services/version-diff'
+import { tableParamsSchema } from '#shared/schemas/route-params'
+import { diffVersions } from '~~/server/services/version-diff'
 
 const querySchema = z.object({ a: z.coerce.number().int().min(1).max(1_000_000), b: z.coerce.number().int().min(1).max(1_000_000) })
 

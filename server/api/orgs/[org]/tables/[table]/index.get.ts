@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { describeTable } from '../../../../../services/versions'
+import { describeTable } from '~~/server/services/versions'
 
 const paramsSchema = z.object({ table: z.string().max(64) })
 

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { tableUpdateSchema } from '../../../../../../shared/schemas/tables'
-import { updateTable } from '../../../../../services/versions'
+import { tableUpdateSchema } from '#shared/schemas/tables'
+import { updateTable } from '~~/server/services/versions'
 
 const paramsSchema = z.object({ table: z.string().max(64) })
 

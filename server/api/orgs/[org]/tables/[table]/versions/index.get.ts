@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { findTable, listVersions } from '../../../../../../services/versions'
+import { findTable, listVersions } from '~~/server/services/versions'
 
 const paramsSchema = z.object({ table: z.string().max(64) })
 

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { newDraftSchema } from '../../../../../../../shared/schemas/tables'
-import { newDraftFrom } from '../../../../../../services/versions'
+import { newDraftSchema } from '#shared/schemas/tables'
+import { newDraftFrom } from '~~/server/services/versions'
 
 const paramsSchema = z.object({ table: z.string().max(64) })
 

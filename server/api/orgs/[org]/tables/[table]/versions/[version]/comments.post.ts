@@ -1,6 +1,6 @@
-import { versionParamsSchema } from '../../../../../../../../shared/schemas/route-params'
-import { commentSchema } from '../../../../../../../../shared/schemas/reviews'
-import { commentOn } from '../../../../../../../services/reviews'
+import { versionParamsSchema } from '#shared/schemas/route-params'
+import { commentSchema } from '#shared/schemas/reviews'
+import { commentOn } from '~~/server/services/reviews'
 
 // Adds a comment to a version's thread.
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { compareSchema } from '../../../../../../../../shared/schemas/fills'
-import { runCompare } from '../../../../../../../services/fills'
+import { compareSchema } from '#shared/schemas/fills'
+import { runCompare } from '~~/server/services/fills'
 
 const paramsSchema = z.object({ table: z.string().max(64), version: z.coerce.number().int().min(1).max(1_000_000) })
 

@@ -1,5 +1,5 @@
-import { versionParamsSchema } from '../../../../../../../../shared/schemas/route-params'
-import { exportSignedVersion } from '../../../../../../../services/exports'
+import { versionParamsSchema } from '#shared/schemas/route-params'
+import { exportSignedVersion } from '~~/server/services/exports'
 
 // The signed Excel export of a signed-off version (Ed25519 over RFC 8785 JSON of its content); writes an audit event.
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { getFill } from '../../../../../../../services/fills'
+import { getFill } from '~~/server/services/fills'
 
 const paramsSchema = z.object({ table: z.string().max(64), version: z.coerce.number().int().min(1).max(1_000_000) })
 const querySchema = z.object({ points: z.enum(['0', '1']).optional() })

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { saveFillSchema } from '../../../../../../../../shared/schemas/fills'
-import { saveFill } from '../../../../../../../services/fills'
+import { saveFillSchema } from '#shared/schemas/fills'
+import { saveFill } from '~~/server/services/fills'
 
 const paramsSchema = z.object({ table: z.string().max(64), version: z.coerce.number().int().min(1).max(1_000_000) })
 

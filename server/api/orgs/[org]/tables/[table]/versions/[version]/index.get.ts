@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { getVersion } from '../../../../../../../services/versions'
+import { getVersion } from '~~/server/services/versions'
 
 const paramsSchema = z.object({ table: z.string().max(64), version: z.coerce.number().int().min(1).max(1_000_000) })
 

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { savePointsSchema } from '../../../../../../../../shared/schemas/tables'
-import { savePoints } from '../../../../../../../services/versions'
+import { savePointsSchema } from '#shared/schemas/tables'
+import { savePoints } from '~~/server/services/versions'
 
 const paramsSchema = z.object({ table: z.string().max(64), version: z.coerce.number().int().min(1).max(1_000_000) })
 

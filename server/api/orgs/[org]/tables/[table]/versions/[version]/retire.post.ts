@@ -1,6 +1,6 @@
-import { versionParamsSchema } from '../../../../../../../../shared/schemas/route-params'
-import { retireSchema } from '../../../../../../../../shared/schemas/reviews'
-import { retireVersion } from '../../../../../../../services/reviews'
+import { versionParamsSchema } from '#shared/schemas/route-params'
+import { retireSchema } from '#shared/schemas/reviews'
+import { retireVersion } from '~~/server/services/reviews'
 
 // Withdraws a signed-off version (its values stay as they were; only its state changes).
 export default defineEventHandler(async (event) => {

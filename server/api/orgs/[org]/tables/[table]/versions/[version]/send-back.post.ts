@@ -1,6 +1,6 @@
-import { versionParamsSchema } from '../../../../../../../../shared/schemas/route-params'
-import { sendBackSchema } from '../../../../../../../../shared/schemas/reviews'
-import { sendBack } from '../../../../../../../services/reviews'
+import { versionParamsSchema } from '#shared/schemas/route-params'
+import { sendBackSchema } from '#shared/schemas/reviews'
+import { sendBack } from '~~/server/services/reviews'
 
 // Returns a version awaiting a second check to its maker as a working draft, with a comment.
 export default defineEventHandler(async (event) => {

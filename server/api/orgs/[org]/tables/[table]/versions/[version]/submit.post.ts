@@ -1,6 +1,6 @@
-import { versionParamsSchema } from '../../../../../../../../shared/schemas/route-params'
-import { submitReviewSchema } from '../../../../../../../../shared/schemas/reviews'
-import { submitForReview } from '../../../../../../../services/reviews'
+import { versionParamsSchema } from '#shared/schemas/route-params'
+import { submitReviewSchema } from '#shared/schemas/reviews'
+import { submitForReview } from '~~/server/services/reviews'
 
 // Freezes a filled working draft and asks the organisation's actuaries for a second check.
 export default defineEventHandler(async (event) => {

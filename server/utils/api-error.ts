@@ -1,0 +1,9 @@
+import type { ApiErrorCode } from '#shared/api-errors'
+
+/**
+ * The one way the server refuses a request: an HTTP status, a machine-readable code (shared/api-errors.ts) the client
+ * decides on, and a message a person can act on. Extra fields (issues, lockVersion, findings) go into `data` beside the code.
+ */
+export function apiError(statusCode: number, code: ApiErrorCode, message: string, extra: Record<string, unknown> = {}) {
+  return createError({ statusCode, statusMessage: message, data: { ...extra, code } })
+}

@@ -1,0 +1,45 @@
+// Machine-readable error codes. Every 4xx (and the 5xx a person can act on) carries one in `data.code`; the client
+// decides on these codes, never on the message text, which is for people and may change.
+export const API_ERROR_CODES = [
+  // input
+  'invalid-input', // a field or parameter failed validation (data.issues lists every problem)
+  'invalid-json', // the body is not JSON
+  'engine-refused', // the engine refused the request (data.engineCode names the engine's reason)
+  'import-refused', // an uploaded file was refused (kind, size, structure)
+  'import-blocked', // the upload's values have blocking findings (data.findings)
+  'import-warnings', // warnings must be accepted first (data.findings)
+  // who is asking
+  'sign-in-required',
+  'session-ended',
+  'wrong-credentials',
+  'wrong-password',
+  'read-token-required',
+  'role-forbidden',
+  'own-work', // maker-checker: nobody signs off their own work
+  'not-found', // missing, or another organisation's (the same answer on purpose)
+  'link-expired',
+  // state
+  'draft-conflict', // someone saved the draft after it was read (data.lockVersion is the current one)
+  'not-a-draft', // only a working draft changes
+  'version-open', // a draft or a version in review already exists
+  'fill-missing', // no fill is recorded
+  'wrong-state', // the version is not in the state the action needs
+  'meaning-fixed', // kind, axis and units are fixed once a version left draft
+  'name-taken',
+  'already-member',
+  'invitation-open',
+  'last-admin',
+  'seats-full',
+  'seats-in-use',
+  'not-signed-off',
+  'reload-needed',
+  // limits and services
+  'rate-limited', // 429 with Retry-After
+  'payment-refused',
+  'service-unreachable',
+  'not-configured',
+  'mail-failed',
+  'cancelled',
+  'try-later',
+] as const
+export type ApiErrorCode = (typeof API_ERROR_CODES)[number]

@@ -1,0 +1,229 @@
+// The engine's contract: its vocabulary (as const lists) and its request and result types. Import-free on purpose:
+// the engine (server/engine), the shared code and the client all read these, and nothing here reads them back.
+// All table values are decimal strings.
+
+/** Interpolation methods, in the order the product lists them. */
+export const METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima'] as const
+export type MethodId = (typeof METHOD_IDS)[number]
+
+/** Scales a method may work on (the values are mapped there, filled, and mapped back). */
+export const TRANSFORM_IDS = ['none', 'log', 'logit', 'cumulative-hazard', 'log-discount'] as const
+export type TransformId = (typeof TRANSFORM_IDS)[number]
+
+/** What happens to points outside the given range. */
+export const EXTRAPOLATION_RULES = ['error', 'flat', 'linear'] as const
+export type ExtrapolationRule = (typeof EXTRAPOLATION_RULES)[number]
+
+/** Table kinds: they decide the range checks, the forward-rate check and the money view. */
+export const TABLE_KINDS = ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other'] as const
+export type TableKind = (typeof TABLE_KINDS)[number]
+
+export interface Knot { x: string, y: string }
+export interface GridSpec { from: string, to: string, step: string }
+
+/** Options for the money view. Ages and annuity terms are whole numbers; rates and terms are decimal strings. */
+export interface MoneyOptions {
+  /** Mortality: ages at which e_x and the annuity-due are shown (default [65]). */
+  ages?: number[]
+  /** Mortality: annual effective interest rate for the annuity-due (default '0.03'). */
+  interest?: string
+  /** Curves: terms N (years) of the level annual annuity paid at 1..N (default [10, 20]). */
+  annuityTerms?: number[]
+  /** Curves: terms at which discount factors and forward rates are shown (default 1, 2, 5, 10, 20, 30). */
+  keyTerms?: string[]
+}
+
+export interface FillRequest {
+  knots: Knot[]
+  method: MethodId
+  /** Per-method options (see METHODS); values are strings. */
+  options?: Record<string, string>
+  transform?: TransformId
+  /** Either a regular grid ... */
+  grid?: GridSpec
+  /** ... or a list of points (output keeps this order). */
+  at?: string[]
+  extrapolation?: ExtrapolationRule
+  /** Significant digits of the results (default 40), half-even rounding. */
+  precision?: number
+  kind?: TableKind
+  money?: MoneyOptions
+}
+
+export interface ResolvedMoneyOptions {
+  ages: number[]
+  interest: string
+  annuityTerms: number[]
+  keyTerms: string[]
+}
+
+/** Everything needed to reproduce a fill digit for digit (together with the knots). */
+export interface ResolvedSpec {
+  engineVersion: string
+  method: MethodId
+  options: Record<string, string>
+  transform: TransformId
+  extrapolation: ExtrapolationRule
+  grid: GridSpec | null
+  at: string[] | null
+  precision: number
+  /** Digits carried internally before the final rounding. */
+  workingPrecision: number
+  rounding: 'half-even'
+  kind: TableKind
+  money: ResolvedMoneyOptions
+  knotCount: number
+}
+
+export interface Located { x: string, value: string }
+export interface Span { from: string, to: string }
+
+export interface CurvatureReport {
+  /** Where the sign of the second derivative was read: the fitted pieces on the method's own scale. */
+  basis: string
+  count: number
+  /** Each change: a knot (from = to) where the second derivative jumps across zero, or a span between knots. */
+  at: Span[]
+}
+
+export interface MonotonicityReport {
+  knotDirection: 'increasing' | 'decreasing' | 'constant' | 'mixed'
+  /** Turning points of the knots themselves. */
+  knotTurningPoints: number
+  /** Turning points of the filled values (where the first difference changes sign). */
+  fillTurningPoints: number
+  at: string[]
+}
+
+export interface RangeReport {
+  rule: string
+  count: number
+  first: Located[]
+}
+
+export interface ForwardReport {
+  convention: string
+  minimum: { value: string, from: string, to: string } | null
+  negativeCount: number
+  negatives: Span[]
+  largestJump: { value: string, at: string } | null
+}
+
+export interface Diagnostics {
+  /** Largest |filled - given| over the knots, both rounded to the stated precision. Zero means exact reproduction. */
+  maxKnotDeviation: string
+  maxKnotDeviationAt: string | null
+  knotsReproduced: boolean
+  curvatureSignChanges: CurvatureReport
+  roughness: { secondDifferences: string, thirdDifferences: string, basis: string }
+  monotonicity: MonotonicityReport
+  outOfRange: RangeReport
+  forwards: ForwardReport | null
+  /** Locality of a bump of the middle given point (null with fewer than 3 points, or when the bumped value is outside the transform's domain). */
+  bump: BumpReport | null
+  notes: string[]
+}
+
+export interface BumpReport {
+  basis: string
+  /** The given point that was moved, and by how much (on the table's per-unit scale). */
+  at: string
+  size: string
+  /** Intervals between given points. */
+  intervals: number
+  /** Where anything changed at the stated precision: first and last given point of the changed intervals. */
+  changed: { from: string, to: string, intervals: number } | null
+  /** Where the change is at least 1 % of the bump. */
+  material: { from: string, to: string, intervals: number } | null
+  largest: string
+  largestAt: string
+  /** largest / size, 6 significant digits. */
+  ratio: string
+}
+
+export interface MoneyFigure {
+  key: string
+  label: string
+  value: string | null
+  reason?: string
+}
+
+export interface MoneyImpact {
+  basis: 'mortality' | 'curve' | 'none'
+  available: boolean
+  reason?: string
+  figures: MoneyFigure[]
+}
+
+export interface FillResult {
+  points: Knot[]
+  diagnostics: Diagnostics
+  money: MoneyImpact
+  spec: ResolvedSpec
+}
+
+export interface MethodSpec {
+  method: MethodId
+  options?: Record<string, string>
+  transform?: TransformId
+  /** Name shown in the comparison; defaults to the method id plus non-default choices. */
+  label?: string
+}
+
+export interface PairDifference {
+  a: string
+  b: string
+  maxAbsDifference: string
+  at: string | null
+}
+
+export interface MoneyDifference {
+  label: string
+  key: string
+  baseline: string | null
+  value: string | null
+  absolute: string | null
+  percent: string | null
+}
+
+export type CompareEntry =
+  | { label: string, ok: true, result: FillResult }
+  | { label: string, ok: false, error: string, code: string }
+
+export interface CompareResult {
+  baseline: string
+  entries: CompareEntry[]
+  pairs: PairDifference[]
+  money: MoneyDifference[]
+}
+
+/** A method option as a client may show it: data only. */
+export interface OptionDescriptor {
+  name: string
+  type: 'enum' | 'decimal'
+  values?: string[]
+  default: string
+  description: string
+  /** The option is used only when another option has one of these values, e.g. { condition: ['left-slope'] }. */
+  appliesWhen?: Record<string, string[]>
+}
+
+/** What a client may show about a method: no functions, only data. */
+export interface MethodListing {
+  id: MethodId
+  label: string
+  /** Fewest knots accepted (as SciPy for the same method). */
+  minPoints: number
+  /** Published source of the method. */
+  source: string
+  summary: string
+  options: OptionDescriptor[]
+}
+
+/** What a client may show about a transform. */
+export interface TransformListing {
+  id: TransformId
+  label: string
+  domain: string
+  description: string
+}
