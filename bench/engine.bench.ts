@@ -14,7 +14,6 @@ import Decimal from 'decimal.js'
 import { computeDiagnostics } from '../server/engine/diagnostics'
 import { computeMoney } from '../server/engine/money'
 import { fillCore } from '../server/engine/pipeline'
-import { forgetResolvedPoints } from '../server/engine/grid'
 import type { FillRequest, MethodId, TransformId } from '../server/engine/types'
 
 const RUNS = 9
@@ -97,8 +96,8 @@ const methods: MethodId[] = ['linear', 'log-linear', 'quadratic', 'cubic-natural
 const rows: string[][] = []
 function row(method: MethodId, transform: TransformId, runs: number, withChecks: boolean): void {
   const request: FillRequest = { ...base, method, transform }
-  // a cold grid each time: compare() shares one grid between methods, a single fill does not
-  const t = timeAgainstBaseline(() => { forgetResolvedPoints(); return fillCore(request) }, runs)
+  // a grid resolved each time, as a single fill does (compare() shares one between methods)
+  const t = timeAgainstBaseline(() => fillCore(request), runs)
   let checks = '-'
   if (withChecks) {
     const core = fillCore(request)

@@ -1,4 +1,4 @@
-import { decimalContext, describeFailure, parseDecimal, quote } from './decimal'
+import { describeFailure, parseDecimal, quote, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { akima } from './methods/akima'
 import { cubicClamped } from './methods/cubic-clamped'
@@ -44,8 +44,11 @@ export function methodDefinition(id: unknown): MethodDefinition {
   return def
 }
 
-/** Validate the options of a method and fill in defaults; options that do not apply to the chosen settings are dropped. */
-export function resolveOptions(def: MethodDefinition, given: unknown): Record<string, string> {
+/**
+ * Validate the options of a method and fill in defaults; options that do not apply to the chosen settings are dropped.
+ * Decimal options are parsed in the request's working context D (parsing keeps every digit; precision.ts).
+ */
+export function resolveOptions(def: MethodDefinition, given: unknown, D: DecimalCtor): Record<string, string> {
   if (given !== undefined && given !== null && (typeof given !== 'object' || Array.isArray(given))) {
     throw new EngineError('invalid-option', `Options for ${def.id} must be an object of named values.`)
   }
@@ -57,7 +60,6 @@ export function resolveOptions(def: MethodDefinition, given: unknown): Record<st
       throw new EngineError('invalid-option', `Method ${def.id} has no option '${name}'; ${list}.`)
     }
   }
-  const D = decimalContext(50)
   const out: Record<string, string> = {}
   for (const opt of def.options) {
     const value = raw[opt.name] ?? opt.default

@@ -18,8 +18,32 @@ export type ExtrapolationRule = (typeof EXTRAPOLATION_RULES)[number]
 export const TABLE_KINDS = ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other'] as const
 export type TableKind = (typeof TABLE_KINDS)[number]
 
+/**
+ * Significant digits of results: the default, the fewest and the most a request may ask for. The error budget that
+ * relates them to the digits the engine carries internally is documented in server/engine/precision.ts.
+ */
+export const DEFAULT_PRECISION = 40
+export const MIN_PRECISION = 6
+export const MAX_PRECISION = 200
+/** Most significant digits of a table value as typed or imported. */
+export const MAX_INPUT_DIGITS = 40
+/**
+ * Digits of the shared decimal-text context (shared/decimal-text.ts): 2 x MAX_PRECISION. Scaling by a power of ten never
+ * adds digits, so it is exact for any value the engine emits; a sum or difference of two such values is exact when
+ * their leading digits are at most MAX_PRECISION places apart (the exact result then has at most 2 x MAX_PRECISION + 1
+ * digits; in the last case one rounding at 400 digits, far below any digit shown).
+ */
+export const TEXT_DIGITS = 2 * MAX_PRECISION
+/** Decimal places of the points of a fraction step (1/12: monthly terms in years) unless the grid says otherwise. */
+export const FRACTION_STEP_PLACES = 12
+
 export interface Knot { x: string, y: string }
-export interface GridSpec { from: string, to: string, step: string }
+/**
+ * A regular grid from `from` to `to` (inclusive when reached). `step` is a decimal ('0.5'), or a fraction of two whole
+ * numbers ('1/12'): point k is then from + k a/b rounded half-even to `places` decimals (default FRACTION_STEP_PLACES),
+ * so whole and half years stay exact. The resolved spec records `places` for a fraction step.
+ */
+export interface GridSpec { from: string, to: string, step: string, places?: number }
 
 /** Options for the money view. Ages and annuity terms are whole numbers; rates and terms are decimal strings. */
 export interface MoneyOptions {
