@@ -24,7 +24,7 @@ export function computeDiagnostics(core: CoreFill): Diagnostics {
     outOfRange: outOfRange(core.spec.kind, xs, ys),
     forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P) : null,
     bump: bumpReach(core),
-    notes: [...core.notes, ...extrapolationNotes(core)],
+    notes: [...core.notes, ...(core.def.notes?.(core.knots.x, xs) ?? []), ...extrapolationNotes(core)],
   }
 }
 

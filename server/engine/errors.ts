@@ -9,6 +9,7 @@ export type EngineErrorCode =
   | 'invalid-grid'
   | 'outside-knots'
   | 'transform-domain'
+  | 'unequal-spacing'
 
 export class EngineError extends Error {
   readonly code: EngineErrorCode

@@ -1,13 +1,16 @@
 import { describeFailure, parseDecimal, quote, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { akima } from './methods/akima'
+import { beers } from './methods/beers'
+import { karupKing } from './methods/karup-king'
+import { sprague } from './methods/sprague'
 import { cubicClamped } from './methods/cubic-clamped'
 import { cubicNatural } from './methods/cubic-natural'
 import { cubicNotAKnot } from './methods/cubic-not-a-knot'
 import { linear } from './methods/linear'
 import { logLinear } from './methods/log-linear'
 import type { MethodDefinition } from './methods/method'
-import type { MethodListing } from './types'
+import { TABLE_KINDS, type MethodListing } from './types'
 import { pchip } from './methods/pchip'
 import { quadratic } from './methods/quadratic'
 
@@ -21,6 +24,9 @@ const DEFINITIONS: MethodDefinition[] = [
   cubicNotAKnot,
   pchip,
   akima,
+  karupKing,
+  sprague,
+  beers,
 ]
 
 const BY_ID = new Map<string, MethodDefinition>(DEFINITIONS.map(d => [d.id, d]))
@@ -31,6 +37,7 @@ export const METHODS: readonly MethodListing[] = DEFINITIONS.map(d => ({
   id: d.id,
   label: d.label,
   minPoints: d.minPoints,
+  appliesTo: { kinds: [...(d.appliesTo?.kinds ?? TABLE_KINDS)], spacing: d.appliesTo?.spacing ?? 'any' },
   source: d.source,
   summary: d.summary,
   options: d.options.map(o => ({ ...o })),

@@ -3,7 +3,7 @@
 // All table values are decimal strings.
 
 /** Interpolation methods, in the order the product lists them. */
-export const METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima'] as const
+export const METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima', 'karup-king', 'sprague', 'beers'] as const
 export type MethodId = (typeof METHOD_IDS)[number]
 
 /** Scales a method may work on (the values are mapped there, filled, and mapped back). */
@@ -232,12 +232,22 @@ export interface OptionDescriptor {
   appliesWhen?: Record<string, string[]>
 }
 
+/**
+ * Where a method applies, so a client offers it only there: the table kinds it is meant for, and whether it needs equally
+ * spaced points ('equal': the engine refuses other spacing with code unequal-spacing).
+ */
+export interface MethodScope {
+  kinds: TableKind[]
+  spacing: 'equal' | 'any'
+}
+
 /** What a client may show about a method: no functions, only data. */
 export interface MethodListing {
   id: MethodId
   label: string
   /** Fewest knots accepted (as SciPy for the same method). */
   minPoints: number
+  appliesTo: MethodScope
   /** Published source of the method. */
   source: string
   summary: string
