@@ -10,6 +10,7 @@ export type EngineErrorCode =
   | 'outside-knots'
   | 'transform-domain'
   | 'unequal-spacing'
+  | 'invalid-group'
 
 export class EngineError extends Error {
   readonly code: EngineErrorCode

@@ -261,3 +261,45 @@ export interface TransformListing {
   domain: string
   description: string
 }
+
+/** Methods that split group totals into single-year values (the pivotal formulas applied to cumulative totals). */
+export const SPLIT_METHOD_IDS = ['sprague', 'beers', 'karup-king'] as const
+export type SplitMethodId = (typeof SPLIT_METHOD_IDS)[number]
+
+/** A group (band) of single years from `from` to `to` inclusive (whole numbers: 55-59 is { from: '55', to: '59' }) and its total. */
+export interface GroupTotal { from: string, to: string, total: string }
+
+export interface SplitRequest {
+  /** Contiguous groups of equal width (in any order); at least 2 (karup-king), 4 (sprague) or 5 (beers). */
+  groups: GroupTotal[]
+  method: SplitMethodId
+  /** Significant digits of each group's total (default 40); the single-year values are given to the decimal places of that last digit. */
+  precision?: number
+}
+
+export interface SplitSpec {
+  engineVersion: string
+  method: SplitMethodId
+  precision: number
+  workingPrecision: number
+  rounding: 'half-even, residue by largest remainder'
+  /** Width of every group (single years). */
+  width: number
+  groups: GroupTotal[]
+}
+
+export interface SplitDiagnostics {
+  /** Every group's single-year values add up to its total rounded to the stated precision, exactly. */
+  totalsKept: boolean
+  /** Values moved by one unit of their last place so that their group adds up (largest-remainder rule): count and the first 20. */
+  adjusted: { count: number, at: string[] }
+  /** Single-year values below zero (a total of deaths or exposures cannot be split into negative parts): count and the first 20. */
+  negatives: { count: number, first: Located[] }
+  notes: string[]
+}
+
+export interface SplitResult {
+  points: Knot[]
+  spec: SplitSpec
+  diagnostics: SplitDiagnostics
+}
