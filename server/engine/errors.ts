@@ -11,6 +11,7 @@ export type EngineErrorCode =
   | 'transform-domain'
   | 'unequal-spacing'
   | 'invalid-group'
+  | 'ill-conditioned'
 
 export class EngineError extends Error {
   readonly code: EngineErrorCode

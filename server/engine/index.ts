@@ -5,6 +5,7 @@
 export { fill } from './fill'
 export { compare, compareAsync } from './compare'
 export { split } from './split'
+export { graduate } from './graduate'
 export { EngineError, type EngineErrorCode } from './errors'
 export { METHODS, type MethodListing } from './registry'
 export type { OptionDescriptor } from './methods/method'

@@ -1,5 +1,5 @@
 import type { Dec, DecimalCtor } from './decimal'
-import { EngineError } from './errors'
+import { assertEqualSpacing } from './knots'
 import type { PiecewisePolynomial } from './piecewise'
 import { ONE, Rational, ZERO, power, solveExact } from './rational'
 
@@ -127,25 +127,12 @@ export function prepareScheme(name: string, scheme: Scheme): PreparedScheme {
   return { name, interior: ready(scheme.interior), first: scheme.ends.map(ready), last: scheme.ends.map(p => ready(mirrored(p))) }
 }
 
-/** Refuse unequal spacing: these formulas are defined on equally spaced pivotal values only. */
-export function assertEqualSpacing(id: string, x: Dec[]): Dec {
-  const h = x[1]!.minus(x[0]!)
-  for (let i = 2; i < x.length; i += 1) {
-    const hi = x[i]!.minus(x[i - 1]!)
-    if (!hi.eq(h)) {
-      throw new EngineError('unequal-spacing', `Method ${id} needs equally spaced points (pivotal values at a fixed step): the step is ${h.toString()} from ${x[0]!.toString()} to ${x[1]!.toString()} `
-        + `but ${hi.toString()} from ${x[i - 1]!.toString()} to ${x[i]!.toString()}. Use a spline, PCHIP or Akima for unequal spacing.`)
-    }
-  }
-  return h
-}
-
 /**
  * The pieces: interval i takes the first end panels at the start, the mirrored ones at the end, the interior panel between;
  * a_k = sum_j w_kj y_{i + o_j} (one rounding at the working precision), then c_k = a_k / h^k for the local variable x - x_i.
  */
 export function fitScheme(scheme: PreparedScheme, x: Dec[], y: Dec[], D: DecimalCtor): PiecewisePolynomial {
-  const h = assertEqualSpacing(scheme.name, x)
+  const h = assertEqualSpacing(`Method ${scheme.name}`, 'pivotal values at a fixed step', x, 'Use a spline, PCHIP or Akima for unequal spacing.')
   const n = x.length - 1
   const coefs: Dec[][] = []
   const hPowers: Dec[] = [new D(1)]

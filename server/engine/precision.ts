@@ -17,6 +17,9 @@ import { DEFAULT_PRECISION, MAX_PRECISION, MIN_PRECISION } from './types'
  *   - evaluation of the pieces: 0 (exact, on scaled integers; evaluate.ts);
  *   - inverse transform (exp, ln at W): at most TRANSFORM_DIGITS = 2 (exp and ln are faithfully rounded, and an absolute
  *     error e in v becomes a relative error e in exp(v): |v| < 100 on any table costs 2 digits);
+ *   - graduation (graduate.ts): a band solve of (W + h K'K) u = W y loses up to log10(condition) digits, which a large h
+ *     makes large; iterative refinement (residual at 2W, correction from the same factors) recovers them until the
+ *     correction is below 10^-(p + MARGIN_DIGITS + 1) of the largest value, or refuses as ill-conditioned;
  *   - sums over a table in the money view (l_x products, annuity sums, up to 1,000 terms): at most 4, inside the same budget;
  *   - what is left, MARGIN_DIGITS = 2, keeps the error before the final rounding below 10^-(p+2) of the scale, so each
  *     result is within half a unit in its last place plus 10^-(p+2) (relative to the largest value on the fit's scale)
@@ -58,3 +61,13 @@ export function resolvePrecision(value: unknown): number {
 export const UNIT_ROUNDOFF = 2 ** -53
 /** Below this magnitude a double may be subnormal and the standard model's relative bound fails: add it as an absolute slack. */
 export const FLOAT_TINY = Number.MIN_VALUE * 2 ** 60
+
+/**
+ * Test probabilities (the graduation's chi-square, signs and groups tests) are readings, reported to READING_DIGITS
+ * significant digits: the discrete ones from exact integer counts with one division in readingContext(), the chi-square
+ * tail in binary floating point (its series and continued fraction converge to about 1e-15, far below the digits shown).
+ */
+export const READING_DIGITS = 4
+export function readingContext(): DecimalCtor {
+  return decimalContext(READING_DIGITS + GUARD_DIGITS)
+}

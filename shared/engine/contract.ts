@@ -303,3 +303,66 @@ export interface SplitResult {
   spec: SplitSpec
   diagnostics: SplitDiagnostics
 }
+
+/**
+ * One age (or other equally spaced x) of a graduation. y is the crude rate; with deaths and exposure given, y may be left out
+ * (it is then deaths / exposure) and the fit tests compare actual with expected deaths. weight defaults to the exposure,
+ * else 1.
+ */
+export interface GraduationPoint { x: string, y?: string, weight?: string, deaths?: string, exposure?: string }
+
+export interface GraduateRequest {
+  points: GraduationPoint[]
+  /** z, the order of the differences that are penalised (1 to 6; default 3, Whittaker's choice). */
+  order?: number
+  /** h >= 0, the weight of smoothness against fit (a decimal string). */
+  smoothing: string
+  precision?: number
+  /**
+   * How deaths relate to the exposure: 'central' (exposure in years lived, deaths Poisson with mean E u; default) or
+   * 'initial' (lives at the start of the year, deaths binomial with mean E u and variance E u (1 - u)).
+   */
+  exposureType?: 'central' | 'initial'
+}
+
+export interface GraduationSpec {
+  engineVersion: string
+  method: 'whittaker-henderson'
+  order: number
+  smoothing: string
+  precision: number
+  workingPrecision: number
+  rounding: 'half-even'
+  exposureType: 'central' | 'initial'
+  /** Where the weights came from. */
+  weights: 'given' | 'exposure' | 'one' | 'mixed'
+  pointCount: number
+  /** Steps of iterative refinement the banded solve needed to reach the stated precision. */
+  refinements: number
+}
+
+export interface GraduationDiagnostics {
+  /** sum w (u - y)^2 at the graduated values. */
+  fit: string
+  /** Sums of squared differences of order `order` of the graduated and of the crude values, and of third differences of the graduated ones. */
+  smoothness: { order: number, graduated: string, crude: string, thirdDifferences: string }
+  /** Trace of the hat matrix (W + h K'K)^-1 W: how many parameters the graduation spends (order z when h is very large, n when h = 0). */
+  effectiveParameters: string
+  /** Per point: standardised deviation (actual - expected deaths) / sqrt(variance) with deaths and exposures, else sqrt(w) (y - u). */
+  deviations: { basis: string, standardised: boolean, values: Located[] }
+  /** Sum of squared standardised deviations against chi-square with n - effectiveParameters degrees of freedom (null without deaths and exposures). */
+  chiSquare: { statistic: string, degreesOfFreedom: string, pValue: string } | null
+  /** Standardised deviations by band against the normal distribution's expectation (null without deaths and exposures). */
+  distribution: { bands: string[], observed: number[], expected: string[] } | null
+  /** Signs of the deviations: positives against negatives, two-sided binomial p-value (zero deviations left out). */
+  signs: { positive: number, negative: number, pValue: string }
+  /** Runs of equal sign; positive groups and P(this few or fewer) given the counts (the grouping of signs test). */
+  runs: { runs: number, positiveGroups: number, pValue: string }
+  notes: string[]
+}
+
+export interface GraduateResult {
+  points: Knot[]
+  spec: GraduationSpec
+  diagnostics: GraduationDiagnostics
+}

@@ -23,12 +23,11 @@ Everything here is exact (fractions.Fraction and SymPy rationals) and written wi
      rows also from memory). Karup-King pivotal multipliers at fifths: from memory (Shryock and Siegel, The Methods and
      Materials of Demography, 1973, Appendix C).
 """
-import json
-import os
-import sys
 from fractions import Fraction as F
 
 import sympy as sp
+
+from fixture_io import emit
 
 FIFTHS = [F(m, 5) for m in range(1, 5)]
 
@@ -216,11 +215,7 @@ def main():
         'beersMinimised': beers_minimised_interior(),
         'checks': checks,
     }
-    text = json.dumps(out, indent=1)
-    if '--write' in sys.argv:
-        with open(os.path.join(os.path.dirname(os.path.abspath(__file__)), 'osculatory-fixture.json'), 'w') as f:
-            f.write(text + '\n')
-    print(text)
+    emit('osculatory-fixture.json', out)
 
 
 if __name__ == '__main__':
