@@ -23,6 +23,7 @@ export function computeDiagnostics(core: CoreFill): Diagnostics {
     monotonicity: monotonicity(core.knots.y, xs, ys),
     outOfRange: outOfRange(core.spec.kind, xs, ys),
     forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P) : null,
+    closure: core.closure?.report ?? null,
     bump: bumpReach(core),
     notes: [...core.notes, ...(core.def.notes?.(core.knots.x, xs) ?? []), ...extrapolationNotes(core)],
   }

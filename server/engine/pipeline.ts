@@ -1,4 +1,5 @@
 import { quote, roundTo, type Dec, type DecimalCtor } from './decimal'
+import { fitClosure, isClosure, resolveClosureOptions, type ClosureLaw } from './closure'
 import { EngineError } from './errors'
 import { assertInside, evaluateAny, evaluateAscending, type UniformGrid } from './evaluate'
 import { resolvePoints, type ResolvedPoints } from './grid'
@@ -24,6 +25,8 @@ export interface FittedRequest {
   pp: PiecewisePolynomial
   points: ResolvedPoints
   notes: string[]
+  /** The old-age closure law (extrapolation gompertz or kannisto), fitted to the given q_x; null for other rules. */
+  closure: ClosureLaw | null
 }
 
 export interface CoreFill extends FittedRequest {
@@ -64,6 +67,7 @@ export function fitRequest(request: FillRequest, points?: ResolvedPoints | null)
     throw new EngineError('too-few-points', `Method ${def.id} needs at least ${def.minPoints} points; ${knots.x.length} ${knots.x.length === 1 ? 'was' : 'were'} given.`)
   }
   const output = points === undefined ? resolvePoints(D, request.grid, request.at) : points ?? NO_POINTS
+  const { closure, extrapolationOptions } = resolveClosure(request, extrapolation, kind, knots, D)
   const notes: string[] = []
   let x = knots.x
   const y = knots.y.map((value, i) => {
@@ -86,6 +90,7 @@ export function fitRequest(request: FillRequest, points?: ResolvedPoints | null)
     options,
     transform: transformId,
     extrapolation,
+    extrapolationOptions,
     grid: output.grid,
     at: output.at,
     precision,
@@ -95,7 +100,20 @@ export function fitRequest(request: FillRequest, points?: ResolvedPoints | null)
     money,
     knotCount: knots.x.length,
   }
-  return { spec, D, def, transform, knots, pp, points: output, notes }
+  return { spec, D, def, transform, knots, pp, points: output, notes, closure }
+}
+
+/** The closure law of a gompertz / kannisto request (mortality only), fitted to the given knots; options for no other rule. */
+function resolveClosure(request: FillRequest, rule: ExtrapolationRule, kind: TableKind, knots: ParsedKnots, D: DecimalCtor): { closure: ClosureLaw | null, extrapolationOptions: Record<string, string> | null } {
+  if (!isClosure(rule)) {
+    if (request.extrapolationOptions && Object.keys(request.extrapolationOptions).length) {
+      throw new EngineError('invalid-option', `extrapolationOptions apply to the closure rules gompertz and kannisto; extrapolation '${rule}' takes none.`)
+    }
+    return { closure: null, extrapolationOptions: null }
+  }
+  if (kind !== 'mortality') throw new EngineError('invalid-request', `Extrapolation '${rule}' closes a mortality table (q_x) at old ages; this table's kind is '${kind}'.`)
+  const options = resolveClosureOptions(D, request.extrapolationOptions, knots.x[knots.x.length - 1]!)
+  return { closure: fitClosure(rule, knots.x, knots.y, options, D), extrapolationOptions: options }
 }
 
 /**
@@ -109,12 +127,14 @@ export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = fal
   // with one, to the working precision, and the inverse transform's result to the stated precision
   const digits = transform.id === 'none' ? P : spec.workingPrecision
   const raw = ascending ? evaluateAscending(pp, xs, spec.extrapolation, digits, uniform) : evaluateAny(pp, xs, spec.extrapolation, digits)
+  if (fitted.closure) closeAbove(fitted.closure, xs, raw, P)
   if (transform.id === 'none') return raw
   const out: Dec[] = new Array<Dec>(xs.length)
   let atZero: Dec | null = null
   for (let k = 0; k < xs.length; k += 1) {
     const x = xs[k]!
-    if (transform.id === 'log-discount' && x.isZero()) {
+    if (fitted.closure && x.gt(fitted.closure.from)) out[k] = raw[k]!
+    else if (transform.id === 'log-discount' && x.isZero()) {
       atZero ??= logDiscountAtZero(fitted)
       out[k] = roundTo(atZero, P)
     }
@@ -123,6 +143,11 @@ export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = fal
     }
   }
   return out
+}
+
+/** Above the last given age the closure law's q (on the q scale, not the method's), rounded to the stated precision. */
+function closeAbove(closure: ClosureLaw, xs: Dec[], values: Dec[], P: number): void {
+  for (let k = 0; k < xs.length; k += 1) if (xs[k]!.gt(closure.from)) values[k] = roundTo(closure.q(xs[k]!), P)
 }
 
 /** r(0) under log-discount: the given rate if a knot sits at t = 0, else the limit from the slope of ln P at 0. */

@@ -10,8 +10,11 @@ export type MethodId = (typeof METHOD_IDS)[number]
 export const TRANSFORM_IDS = ['none', 'log', 'logit', 'cumulative-hazard', 'log-discount'] as const
 export type TransformId = (typeof TRANSFORM_IDS)[number]
 
-/** What happens to points outside the given range. */
-export const EXTRAPOLATION_RULES = ['error', 'flat', 'linear'] as const
+/**
+ * What happens to points outside the given range. gompertz and kannisto close a mortality table at old ages: above the last
+ * given age q follows a law fitted to the oldest given ages, up to a terminal age where q = 1 (options: extrapolationOptions).
+ */
+export const EXTRAPOLATION_RULES = ['error', 'flat', 'linear', 'gompertz', 'kannisto'] as const
 export type ExtrapolationRule = (typeof EXTRAPOLATION_RULES)[number]
 
 /** Table kinds: they decide the range checks, the forward-rate check and the money view. */
@@ -68,6 +71,11 @@ export interface FillRequest {
   /** ... or a list of points (output keeps this order). */
   at?: string[]
   extrapolation?: ExtrapolationRule
+  /**
+   * Options of the extrapolation rule, decimal strings. gompertz / kannisto: terminalAge (default '120': q = 1 there and
+   * above), fitFrom and fitTo (the given ages the law is fitted to; default the last 15 years of given ages).
+   */
+  extrapolationOptions?: Record<string, string>
   /** Significant digits of the results (default 40), half-even rounding. */
   precision?: number
   kind?: TableKind
@@ -88,6 +96,8 @@ export interface ResolvedSpec {
   options: Record<string, string>
   transform: TransformId
   extrapolation: ExtrapolationRule
+  /** The extrapolation rule's options with defaults filled in (null for rules without options). */
+  extrapolationOptions: Record<string, string> | null
   grid: GridSpec | null
   at: string[] | null
   precision: number
@@ -143,9 +153,26 @@ export interface Diagnostics {
   monotonicity: MonotonicityReport
   outOfRange: RangeReport
   forwards: ForwardReport | null
+  /** Old-age closure (extrapolation gompertz or kannisto): the fitted law and how well it fits; null otherwise. */
+  closure: ClosureReport | null
   /** Locality of a bump of the middle given point (null with fewer than 3 points, or when the bumped value is outside the transform's domain). */
   bump: BumpReport | null
   notes: string[]
+}
+
+export interface ClosureReport {
+  law: 'gompertz' | 'kannisto'
+  /** gompertz: mu_x = B c^x; kannisto: mu_x = a e^(b (x - x0)) / (1 + a e^(b (x - x0))). 12 significant digits. */
+  parameters: Record<string, string>
+  fitFrom: string
+  fitTo: string
+  /** Given ages inside the fitting range. */
+  fitAges: number
+  /** Largest |ln h_law - ln h_given| over the fitting ages (0 when the data follow the law). */
+  maxLogHazardResidual: string
+  /** q from the law at the last given age minus the given q there: the step where the closure takes over. */
+  lawMinusGivenAtLastAge: string
+  terminalAge: string
 }
 
 export interface BumpReport {
