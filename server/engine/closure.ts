@@ -1,10 +1,8 @@
 import { describeFailure, exp, parseDecimal, quote, roundTo, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
-import type { ClosureReport, ExtrapolationRule } from './types'
+import { CLOSURE_RULES, type ClosureReport, type ClosureRule, type ExtrapolationRule } from './types'
 
 /** Extrapolation rules that close a q_x table at old ages with a fitted law. */
-export const CLOSURE_RULES = ['gompertz', 'kannisto'] as const
-export type ClosureRule = (typeof CLOSURE_RULES)[number]
 export const isClosure = (rule: ExtrapolationRule): rule is ClosureRule => (CLOSURE_RULES as readonly string[]).includes(rule)
 
 const FIT_SPAN = 15

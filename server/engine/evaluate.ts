@@ -2,7 +2,7 @@ import { roundTo, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { commonScale, pow10, roundScaled, toScaled } from './exact'
 import { endSlopes, horner, type PiecewisePolynomial } from './piecewise'
-import type { ExtrapolationRule } from './types'
+import { CLOSURE_RULES, type ExtrapolationRule } from './types'
 
 /** A grid whose points are exactly from + k * step (every addition exact): evaluated by exact forward differences. */
 export interface UniformGrid {
@@ -16,7 +16,7 @@ export interface UniformGrid {
  */
 export function assertInside(pp: PiecewisePolynomial, xs: Dec[], rule: ExtrapolationRule, what: string, ascending = false): void {
   // the closure rules (gompertz, kannisto) continue a table upward only: below the first knot they refuse like 'error'
-  const closure = rule === 'gompertz' || rule === 'kannisto'
+  const closure = (CLOSURE_RULES as readonly string[]).includes(rule)
   if ((rule !== 'error' && !closure) || xs.length === 0) return
   const lo = pp.breaks[0]!
   const hi = closure ? null : pp.breaks[pp.breaks.length - 1]!

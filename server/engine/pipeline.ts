@@ -10,7 +10,7 @@ import type { PiecewisePolynomial } from './piecewise'
 import { resolvePrecision, workingContext, workingPrecision } from './precision'
 import { methodDefinition, resolveOptions } from './registry'
 import { TRANSFORMS, spotRateAtZero, type TransformDefinition } from './transforms'
-import { EXTRAPOLATION_RULES, TABLE_KINDS, type ExtrapolationRule, type FillRequest, type Knot, type ResolvedSpec, type TableKind, type TransformId } from './types'
+import { EXTRAPOLATION_KINDS, EXTRAPOLATION_RULES, TABLE_KINDS, type ExtrapolationRule, type FillRequest, type Knot, type ResolvedSpec, type TableKind, type TransformId } from './types'
 import { ENGINE_VERSION } from './version'
 
 
@@ -57,6 +57,9 @@ export function fitRequest(request: FillRequest, points?: ResolvedPoints | null)
   const transformId = pick<TransformId>(request.transform, Object.keys(TRANSFORMS) as TransformId[], 'none', 'transform')
   const extrapolation = pick<ExtrapolationRule>(request.extrapolation, EXTRAPOLATION_RULES, 'error', 'extrapolation rule')
   const kind = pick<TableKind>(request.kind, TABLE_KINDS, 'other', 'kind')
+  if (!EXTRAPOLATION_KINDS[extrapolation].includes(kind)) {
+    throw new EngineError('invalid-request', `Extrapolation '${extrapolation}' applies to ${EXTRAPOLATION_KINDS[extrapolation].join(', ')} tables; this table's kind is '${kind}'.`)
+  }
   const money = resolveMoneyOptions(D, request.money)
   if (def.scale === 'log' && transformId !== 'none') {
     throw new EngineError('invalid-request', `Method ${def.id} already interpolates ln y; use transform 'none' with it, or method linear with transform 'log'.`)
@@ -111,7 +114,6 @@ function resolveClosure(request: FillRequest, rule: ExtrapolationRule, kind: Tab
     }
     return { closure: null, extrapolationOptions: null }
   }
-  if (kind !== 'mortality') throw new EngineError('invalid-request', `Extrapolation '${rule}' closes a mortality table (q_x) at old ages; this table's kind is '${kind}'.`)
   const options = resolveClosureOptions(D, request.extrapolationOptions, knots.x[knots.x.length - 1]!)
   return { closure: fitClosure(rule, knots.x, knots.y, options, D), extrapolationOptions: options }
 }

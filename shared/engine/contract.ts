@@ -21,6 +21,19 @@ export type ExtrapolationRule = (typeof EXTRAPOLATION_RULES)[number]
 export const TABLE_KINDS = ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other'] as const
 export type TableKind = (typeof TABLE_KINDS)[number]
 
+/** The closure rules among EXTRAPOLATION_RULES: a fitted mortality law above the last given age. */
+export const CLOSURE_RULES = ['gompertz', 'kannisto'] as const
+export type ClosureRule = (typeof CLOSURE_RULES)[number]
+
+/** Table kinds each extrapolation rule applies to: a client offers a rule only there, and the engine refuses it elsewhere. */
+export const EXTRAPOLATION_KINDS: Record<ExtrapolationRule, readonly TableKind[]> = {
+  error: TABLE_KINDS,
+  flat: TABLE_KINDS,
+  linear: TABLE_KINDS,
+  gompertz: ['mortality'],
+  kannisto: ['mortality'],
+}
+
 /**
  * Significant digits of results: the default, the fewest and the most a request may ask for. The error budget that
  * relates them to the digits the engine carries internally is documented in server/engine/precision.ts.

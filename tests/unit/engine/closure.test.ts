@@ -101,7 +101,7 @@ describe('closure: spec, money and refusals', () => {
 
   it('refuses what it cannot close, with clear messages', () => {
     const msg = (request: FillRequest) => { try { fill(request); return null } catch (e) { return e instanceof EngineError ? `${e.code}: ${e.message}` : String(e) } }
-    expect(msg({ ...base, kind: 'lapse' })).toBe("invalid-request: Extrapolation 'gompertz' closes a mortality table (q_x) at old ages; this table's kind is 'lapse'.")
+    expect(msg({ ...base, kind: 'lapse' })).toBe("invalid-request: Extrapolation 'gompertz' applies to mortality tables; this table's kind is 'lapse'.")
     expect(msg({ ...base, grid: { from: '65', to: '120', step: '1' } })).toBe("outside-knots: Grid point 1 (x = 65) lies below the first given age 70; extrapolation 'gompertz' closes the table at old ages only. Start the grid at 70.")
     expect(msg({ ...base, extrapolation: 'flat', extrapolationOptions: { terminalAge: '110' } })).toBe("invalid-option: extrapolationOptions apply to the closure rules gompertz and kannisto; extrapolation 'flat' takes none.")
     expect(msg({ ...base, extrapolationOptions: { terminalAge: '100' } })).toBe('invalid-option: The terminal age (100) must lie above the last given age (100).')
