@@ -1,4 +1,5 @@
 import type { Dec, DecimalCtor } from './decimal'
+import { commonScale, pow10, roundScaled, toScaled } from './exact'
 
 /**
  * A symmetric band matrix of half-bandwidth m: lower[i][k] = A[i][i - k], k = 0..m (k = 0 is the diagonal; entries
@@ -20,16 +21,18 @@ export function factorBand(A: SymmetricBand): BandLDL | null {
   const d: Dec[] = []
   for (let i = 0; i < n; i += 1) {
     const row: Dec[] = new Array<Dec>(m + 1)
+    const ld: Dec[] = new Array<Dec>(m + 1) // ld[i - k] = L[i][k] d[k]
     const lo = Math.max(0, i - m)
     // L[i][j] = (A[i][j] - sum_{k<j} L[i][k] d[k] L[j][k]) / d[j]
     for (let j = lo; j < i; j += 1) {
       let v = lower[i]![i - j]!
-      for (let k = Math.max(lo, j - m); k < j; k += 1) v = v.minus(row[i - k]!.times(d[k]!).times(l[j]![j - k]!))
+      for (let k = Math.max(lo, j - m); k < j; k += 1) v = v.minus(ld[i - k]!.times(l[j]![j - k]!))
       row[i - j] = v.div(d[j]!)
+      ld[i - j] = row[i - j]!.times(d[j]!)
     }
     // d[i] = A[i][i] - sum_k L[i][k]^2 d[k]
     let di = lower[i]![0]!
-    for (let k = lo; k < i; k += 1) di = di.minus(row[i - k]!.times(row[i - k]!).times(d[k]!))
+    for (let k = lo; k < i; k += 1) di = di.minus(ld[i - k]!.times(row[i - k]!))
     if (!di.gt(0)) return null
     l.push(row)
     d.push(di)
@@ -55,19 +58,37 @@ export function solveBand(F: BandLDL, b: Dec[]): Dec[] {
   return u
 }
 
-/** A u for a symmetric band A, in the context D (used for residuals at a higher precision). */
-export function multiplyBand(A: SymmetricBand, u: Dec[], D: DecimalCtor): Dec[] {
+/**
+ * The residual b - A u, computed exactly on scaled integers (exact.ts) and rounded once to the precision of D; when a value
+ * is too long for that, in decimal at twice D's precision (fallback). For iterative refinement.
+ */
+export function residualBand(A: SymmetricBand, u: Dec[], b: Dec[], D: DecimalCtor): Dec[] {
   const { n, m, lower } = A
+  const sa = commonScale(lower.flat())
+  const su = commonScale(u)
+  const sb = commonScale(b)
+  if (sa === null || su === null || sb === null) return residualRounded(A, u, b, D)
+  const S = Math.max(sa + su, sb)
+  const lift = pow10(S - sa - su)
+  const U = u.map(v => toScaled(v, su)!)
+  const L = lower.map(row => row.map(v => toScaled(v, sa)!))
   const out: Dec[] = []
   for (let i = 0; i < n; i += 1) {
-    let v = new D(0)
-    for (let j = Math.max(0, i - m); j <= Math.min(n - 1, i + m); j += 1) {
-      const a = j <= i ? lower[i]![i - j]! : lower[j]![j - i]!
-      v = v.plus(new D(a).times(u[j]!))
-    }
-    out.push(v)
+    let v = 0n
+    for (let j = Math.max(0, i - m); j <= Math.min(n - 1, i + m); j += 1) v += (j <= i ? L[i]![i - j]! : L[j]![j - i]!) * U[j]!
+    out.push(roundScaled(toScaled(b[i]!, S)! - v * lift, S, D.precision, D))
   }
   return out
+}
+
+function residualRounded(A: SymmetricBand, u: Dec[], b: Dec[], D: DecimalCtor): Dec[] {
+  const { n, m, lower } = A
+  const R = D.clone({ precision: 2 * D.precision })
+  return b.map((bi, i) => {
+    let v = new R(bi)
+    for (let j = Math.max(0, i - m); j <= Math.min(n - 1, i + m); j += 1) v = v.minus(new R(j <= i ? lower[i]![i - j]! : lower[j]![j - i]!).times(u[j]!))
+    return new D(v)
+  })
 }
 
 /**

@@ -72,7 +72,7 @@ export function fitClosure(rule: ClosureRule, x: Dec[], q: Dec[], options: Recor
   const residual = ages.reduce((m, a, i) => { const r = fit.logH(a).minus(logH[i]!).abs(); return r.gt(m) ? r : m }, new D(0))
   const lastKnot = x[x.length - 1]!
   const terminalAge = new D(options.terminalAge!)
-  const q1 = (age: Dec) => (age.gte(terminalAge) ? new D(1) : exp(exp(fit.logH(age)).neg()).neg().plus(1))
+  const q1 = (age: Dec) => (age.gte(terminalAge) ? new D(1) : exp(fit.hazard(age).neg()).neg().plus(1))
   const jump = q1(lastKnot).minus(q[q.length - 1]!)
   return {
     rule,
@@ -108,7 +108,12 @@ function leastSquaresLine(x: Dec[], y: Dec[], D: DecimalCtor): { intercept: Dec,
   return { intercept: my.minus(slope.times(mx)), slope }
 }
 
-interface FittedLaw { logH(x: Dec): Dec, parameters: Record<string, Dec> }
+interface FittedLaw {
+  /** h_x, the law's hazard over [x, x+1]. */
+  hazard(x: Dec): Dec
+  logH(x: Dec): Dec
+  parameters: Record<string, Dec>
+}
 
 /**
  * Gompertz (1825): mu_x = B c^x, so h_x = B c^x (c - 1) / ln c and ln h_x = alpha + beta x is a straight line: the least-squares
@@ -117,7 +122,8 @@ interface FittedLaw { logH(x: Dec): Dec, parameters: Record<string, Dec> }
 function gompertz(line: { intercept: Dec, slope: Dec }): FittedLaw {
   const c = exp(line.slope)
   const B = exp(line.intercept).times(line.slope).div(c.minus(1))
-  return { logH: age => line.intercept.plus(line.slope.times(age)), parameters: { B, c } }
+  const logH = (age: Dec) => line.intercept.plus(line.slope.times(age))
+  return { hazard: age => exp(logH(age)), logH, parameters: { B, c } }
 }
 
 /** ln h and its first and second derivatives in (ln a, b) at one age, for the Kannisto fit. */
@@ -134,7 +140,8 @@ function kannisto(ages: Dec[], logH: Dec[], line: { intercept: Dec, slope: Dec }
   const ts = ages.map(a => a.minus(x0))
   let [lnA, b] = floatStart(ts.map(t => t.toNumber()), logH.map(v => v.toNumber()), line.slope.toNumber(), line.intercept.plus(line.slope.times(x0)).toNumber()).map(v => new D(v))
   const objective = (p: Dec, q: Dec) => ts.reduce((acc, t, i) => acc.plus(kannistoTerms(p, q, t, false).logH.minus(logH[i]!).pow(2)), new D(0))
-  let current = objective(lnA!, b!)
+  let current: Dec | null = null
+  const NEAR = new D('1e-8')
   const tolerance = new D(10).pow(-(D.precision - 4))
   for (let iteration = 0; iteration < MAX_ITERATIONS; iteration += 1) {
     // gradient and Hessian of S = sum r^2, r = ln h - ln h_given: S' = 2 sum r r', S'' = 2 sum (r' r'^T + r r'')
@@ -151,24 +158,45 @@ function kannisto(ages: Dec[], logH: Dec[], line: { intercept: Dec, slope: Dec }
     if (!det.gt(0) || !h11.gt(0)) break // not a minimum's neighbourhood: the start was too far
     let stepA = h22.times(g1).minus(h12.times(g2)).div(det).neg()
     let stepB = h11.times(g2).minus(h12.times(g1)).div(det).neg()
-    // halve the step while it leaves b > 0 or raises the sum of squares (beyond rounding)
-    const trial = () => (b!.plus(stepB).gt(0) ? objective(lnA!.plus(stepA), b!.plus(stepB)) : null)
-    let next = trial()
-    for (let halvings = 0; (next === null || next.gt(current.times(tolerance.plus(1)))) && halvings < 60; halvings += 1) {
-      stepA = stepA.div(2)
-      stepB = stepB.div(2)
-      next = trial()
+    // near the minimum (steps below 1e-8) Newton converges quadratically: take the step; farther out, halve it while it
+    // leaves b > 0 or raises the sum of squares (beyond rounding)
+    const near = stepA.abs().lt(NEAR.times(lnA!.abs().plus(1))) && stepB.abs().lt(NEAR.times(b!.abs().plus(1)))
+    if (!near) {
+      current ??= objective(lnA!, b!)
+      const trial = () => (b!.plus(stepB).gt(0) ? objective(lnA!.plus(stepA), b!.plus(stepB)) : null)
+      let next = trial()
+      for (let halvings = 0; (next === null || next.gt(current.times(tolerance.plus(1)))) && halvings < 60; halvings += 1) {
+        stepA = stepA.div(2)
+        stepB = stepB.div(2)
+        next = trial()
+      }
+      if (next === null) break
+      current = next
     }
-    if (next === null) break
+    else current = null
     lnA = lnA!.plus(stepA)
     b = b!.plus(stepB)
-    current = next
     if (stepA.abs().lte(tolerance.times(lnA.abs().plus(1))) && stepB.abs().lte(tolerance.times(b.abs().plus(1)))) {
-      const [A, B] = [lnA, b]
-      return { logH: age => kannistoTerms(A, B, age.minus(x0), false).logH, parameters: { a: exp(A), b: B, x0 } }
+      return kannistoLaw(lnA, b, x0)
     }
   }
   throw new EngineError('ill-conditioned', `Closure by kannisto: the fit over ages ${ages[0]!.toString()} to ${ages[ages.length - 1]!.toString()} did not settle; try gompertz or a wider fitting range.`)
+}
+
+/** The fitted Kannisto law: h from g(t) = ln(1 + a e^(b t)), each g kept for the next whole age (h_x and h_x+1 share one). */
+function kannistoLaw(lnA: Dec, b: Dec, x0: Dec): FittedLaw {
+  const gs = new Map<string, Dec>()
+  const g = (t: Dec) => {
+    const key = t.toString()
+    let v = gs.get(key)
+    if (!v) {
+      v = exp(lnA.plus(b.times(t))).plus(1).ln()
+      if (gs.size < 10_000) gs.set(key, v)
+    }
+    return v
+  }
+  const hazard = (age: Dec) => { const t = age.minus(x0); return g(t.plus(1)).minus(g(t)).div(b) }
+  return { hazard, logH: age => hazard(age).ln(), parameters: { a: exp(lnA), b, x0 } }
 }
 
 /**

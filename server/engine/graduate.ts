@@ -1,5 +1,5 @@
-import { factorBand, multiplyBand, solveBand, type BandLDL, type SymmetricBand } from './banded'
-import { decimalContext, describeFailure, parseDecimal, quote, roundTo, type Dec, type DecimalCtor } from './decimal'
+import { factorBand, residualBand, solveBand, type BandLDL, type SymmetricBand } from './banded'
+import { describeFailure, parseDecimal, quote, roundTo, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { graduationChecks } from './graduation-checks'
 import { assertEqualSpacing } from './knots'
@@ -96,7 +96,7 @@ function normalMatrix(D: DecimalCtor, w: Dec[], h: Dec, z: number): SymmetricBan
 /**
  * Whittaker-Henderson graduation: u minimising sum w (u - y)^2 + h sum (Δ^z u)^2 (Whittaker 1923; Henderson 1924; London,
  * Graduation: The Revision of Estimates, 1985, ch. 4), from the normal equations (W + h K'K) u = W y, a symmetric positive
- * definite band system solved by band LDL^T in O(n z^2), then refined: residual at twice the working precision, correction
+ * definite band system solved by band LDL^T in O(n z^2), then refined: the residual exactly (scaled integers), the correction
  * from the same factors, until the correction is below 10^-(p + 2) of the largest value (iterative refinement; Higham,
  * Accuracy and Stability of Numerical Algorithms, 2nd ed., 2002, ch. 12). A large h makes the system ill-conditioned; the
  * refinement recovers the digits that the solve loses.
@@ -149,12 +149,9 @@ export function graduate(request: GraduateRequest): GraduateResult {
 
 function refinedSolve(A: SymmetricBand, F: BandLDL, b: Dec[], precision: number): { u: Dec[], refinements: number } {
   const D = b[0]!.constructor as DecimalCtor
-  const R = decimalContext(2 * workingPrecision(precision))
   let u = solveBand(F, b)
   for (let k = 1; k <= MAX_REFINEMENTS; k += 1) {
-    const Au = multiplyBand(A, u, R)
-    const r = b.map((bi, i) => new D(new R(bi).minus(Au[i]!)))
-    const delta = solveBand(F, r)
+    const delta = solveBand(F, residualBand(A, u, b, D))
     u = u.map((ui, i) => ui.plus(delta[i]!))
     const largest = u.reduce((m, v) => (v.abs().gt(m) ? v.abs() : m), new D(0))
     const step = delta.reduce((m, v) => (v.abs().gt(m) ? v.abs() : m), new D(0))

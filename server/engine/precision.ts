@@ -18,7 +18,7 @@ import { DEFAULT_PRECISION, MAX_PRECISION, MIN_PRECISION } from './types'
  *   - inverse transform (exp, ln at W): at most TRANSFORM_DIGITS = 2 (exp and ln are faithfully rounded, and an absolute
  *     error e in v becomes a relative error e in exp(v): |v| < 100 on any table costs 2 digits);
  *   - graduation (graduate.ts): a band solve of (W + h K'K) u = W y loses up to log10(condition) digits, which a large h
- *     makes large; iterative refinement (residual at 2W, correction from the same factors) recovers them until the
+ *     makes large; iterative refinement (the residual computed exactly, the correction from the same factors) recovers them until the
  *     correction is below 10^-(p + MARGIN_DIGITS + 1) of the largest value, or refuses as ill-conditioned;
  *   - sums over a table in the money view (l_x products, annuity sums, up to 1,000 terms): at most 4, inside the same budget;
  *   - what is left, MARGIN_DIGITS = 2, keeps the error before the final rounding below 10^-(p+2) of the scale, so each
