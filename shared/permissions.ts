@@ -29,10 +29,6 @@ const GRANTS: Record<Role, readonly Permission[]> = {
   auditor: ['tables:read', 'exports:download'],
 }
 
-export function isRole(value: unknown): value is Role {
-  return typeof value === 'string' && (ROLES as readonly string[]).includes(value)
-}
-
 export function can(role: Role | null | undefined, permission: Permission): boolean {
   return !!role && GRANTS[role].includes(permission)
 }

@@ -1,7 +1,7 @@
 import type { Sequelize, Transaction } from 'sequelize'
 import { QueryTypes } from 'sequelize'
 import { hashPassword } from '../../server/lib/password'
-import { appendAuditEvent } from '../../server/lib/audit-writer'
+import { appendAuditEvent } from '../../server/services/audit-writer'
 import type { Role } from '../../shared/permissions'
 
 export const DEMO_PASSWORD = 'knotwork-demo-2026'

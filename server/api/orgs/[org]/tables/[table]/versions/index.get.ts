@@ -1,5 +1,6 @@
 import { z } from 'zod'
-import { findTable, listVersions } from '~~/server/services/versions'
+import { listVersions } from '~~/server/services/versions'
+import { findTable } from '~~/server/services/tables'
 
 const paramsSchema = z.object({ table: z.string().max(64) })
 
