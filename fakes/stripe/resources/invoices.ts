@@ -8,6 +8,7 @@ import { pullPendingItems } from '../billing/invoice_items.ts'
 import { finalizeInvoice, invoiceSubscription, newInvoice, recomputeTotals } from '../billing/invoices.ts'
 import { markPaid, attemptPayment } from '../billing/payment.ts'
 import { attachedPaymentMethod } from '../billing/subscription_parts.ts'
+import { previewInvoice } from '../billing/preview.ts'
 
 const get = (ctx: Ctx) => ctx.store.require('invoices', ctx.params.id!, 'invoice')
 
@@ -104,6 +105,7 @@ function list(ctx: Ctx): Obj {
 
 export const routes: Route[] = [
   { method: 'POST', path: '/v1/invoices', handler: create },
+  { method: 'POST', path: '/v1/invoices/create_preview', handler: previewInvoice },
   { method: 'GET', path: '/v1/invoices', handler: list },
   { method: 'GET', path: '/v1/invoices/:id', handler: get },
   { method: 'POST', path: '/v1/invoices/:id', handler: update },
