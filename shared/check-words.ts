@@ -1,4 +1,4 @@
-// The checks of a fill (DOMAIN.md section 4) in plain words, with values in the table's unit: one wording for the fill
+// The checks of a fill (docs/domain.md#checks) in plain words, with values in the table's unit: one wording for the fill
 // bench, the table page and the signed workbook. Each row says what the check means and why it matters.
 import type { Diagnostics, Span } from './engine/contract'
 import { UNIT_SCALE } from './decimal-text'

@@ -1,4 +1,4 @@
-// The one permission table (DOMAIN.md section 5). Server handlers call
+// The one permission table (docs/domain.md#permissions). Server handlers call
 // requirePermission(); pages and controls call can(). Nothing else decides.
 
 export const ROLES = ['admin', 'actuary', 'analyst', 'auditor'] as const

@@ -5,7 +5,7 @@ import { lapseSummary, salarySummary } from './summaries'
 
 const RADIX = 100000
 
-/** How much the fill moves the money (DOMAIN.md section 4): life expectancy and annuities for q_x, PVs and durations for curves;
+/** How much the fill moves the money (docs/domain.md#checks): life expectancy and annuities for q_x, PVs and durations for curves;
  * for lapse and salary tables a money-free summary (policies in force, salary growth). */
 export function computeMoney(core: CoreFill): MoneyImpact {
   const kind = core.spec.kind

@@ -1,5 +1,5 @@
-import { METHODS, TRANSFORM_LISTING, REVIEW_CAUTION } from '../../engine/index'
-import type { Diagnostics, MoneyImpact } from '../../engine/types'
+import { METHODS, TRANSFORM_LISTING, REVIEW_CAUTION } from '~~/server/engine/index'
+import type { Diagnostics, MoneyImpact } from '~~/server/engine/types'
 import { specRows, type SpecLike, type WordRow } from '#shared/fill-words'
 import { checkRows, verdictOf } from '#shared/check-words'
 import { fromPerUnit } from '#shared/decimal-text'
