@@ -42,7 +42,12 @@ export async function ensureDailyCheckpoint(org: OrgRef): Promise<void> {
   const [done] = await useDb().query<Row>(`SELECT 1 FROM audit_checkpoints WHERE org_id = :orgId AND reason = 'daily' AND day = (now() AT TIME ZONE 'UTC')::date`,
     { replacements: { orgId: org.id }, type: QueryTypes.SELECT })
   if (done) return
-  const key = await activeSigningKey(null, org.id)
+  let key: OpenKey
+  try { key = await activeSigningKey(null, org.id) } catch (error) {
+    // a server without a signing secret (NUXT_SIGNING_SECRET) cannot sign checkpoints; reading the trail still works
+    if ((error as { statusCode?: number }).statusCode === 503) return
+    throw error
+  }
   await inTransaction(t => writeCheckpoint(org, 'daily', key, t))
 }
 
