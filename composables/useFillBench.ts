@@ -3,6 +3,7 @@ import { DEFAULT_BENCH_METHODS, MAX_BENCH_METHODS } from '#shared/fills'
 import type { CompareInput, MethodChoice } from '#shared/schemas/fills'
 import type { CompareResponseDto, MethodListing, StoredFillSpec } from '#shared/types/fills'
 import type { Axis, TableKind } from '#shared/tables'
+import { methodWords } from '#shared/fill-words'
 
 /** One method on the bench, with its option values as the form holds them. */
 export interface BenchMethod { key: number, method: MethodId, options: Record<string, string> }
@@ -20,12 +21,9 @@ export function newBenchMethod(listing: MethodListing): BenchMethod {
   return { key: nextKey++, method: listing.id, options: Object.fromEntries(listing.options.map(o => [o.name, o.default])) }
 }
 
-/** A readable name for a method with its non-default options ("Quadratic spline · right-zero-curvature"). */
+/** A readable name for a method with its non-default options ("Quadratic spline · Straight last piece"). */
 export function benchLabel(m: BenchMethod, listing: MethodListing | undefined): string {
-  const changed = (listing?.options ?? []).filter(o => m.options[o.name] !== undefined && m.options[o.name] !== o.default
-    && (!o.appliesWhen || Object.entries(o.appliesWhen).every(([k, v]) => v.includes(m.options[k] ?? ''))))
-  const base = listing?.label ?? m.method
-  return changed.length ? `${base} · ${changed.map(o => (o.type === 'enum' ? m.options[o.name] : `${o.name} ${m.options[o.name]}`)).join(', ')}` : base
+  return methodWords(listing, m.method, m.options)
 }
 
 /** Defaults from the table: every whole age or policy year between the first and last point; monthly terms for a curve. */

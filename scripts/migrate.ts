@@ -22,7 +22,7 @@ export async function migrate(ownerUrl: string, appRole: string | undefined, log
         GRANT USAGE ON SCHEMA public TO ${appRole};
         GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA public TO ${appRole};
         GRANT USAGE, SELECT ON ALL SEQUENCES IN SCHEMA public TO ${appRole};
-        REVOKE UPDATE, DELETE, TRUNCATE ON audit_events FROM ${appRole};
+        REVOKE UPDATE, DELETE, TRUNCATE ON audit_events, audit_checkpoints FROM ${appRole};
         REVOKE INSERT, UPDATE, DELETE, TRUNCATE ON schema_migrations FROM ${appRole};
       `)
     }

@@ -23,6 +23,7 @@ export const API_ERROR_CODES = [
   'not-a-draft', // only a working draft changes
   'version-open', // a draft or a version in review already exists
   'fill-missing', // no fill is recorded
+  'fill-stale', // the recorded fill was fitted on other points than the version holds (choose it again)
   'wrong-state', // the version is not in the state the action needs
   'meaning-fixed', // kind, axis and units are fixed once a version left draft
   'name-taken',

@@ -249,5 +249,6 @@ function extrapolationNotes(core: CoreFill): string[] {
     else if (x.gt(hi)) above += 1
   }
   if (below + above === 0) return []
-  return [`${below + above} point(s) lie outside the knots [${lo.toString()}, ${hi.toString()}] (${below} below, ${above} above) and were extrapolated by rule '${core.spec.extrapolation}'.`]
+  const rule = core.spec.extrapolation === 'flat' ? 'the end value held flat' : 'the end piece extended as a straight line'
+  return [`${below + above} point(s) lie outside the given points, ${lo.toString()} to ${hi.toString()} (${below} below, ${above} above); there the fill is ${rule}.`]
 }

@@ -1,64 +1,35 @@
 import type { H3Event } from 'h3'
 import { QueryTypes } from 'sequelize'
 import { isUuid } from '#shared/schemas/route-params'
-import { SIGNED_FORMAT, canonicalBytes, contentSha256, readWorkbookCells, signatureSheetField, signBytes, verifyWorkbookCells, writeSignedWorkbook, type Json, type Pair, type Person, type SignedContent } from '../lib/signing'
+import { SIGNED_FORMAT, canonicalBytes, contentSha256, readWorkbookCells, signatureSheetField, signBytes, verifyWorkbookCells, writeSignedWorkbook, type AnySignedContent, type SignedContent, type SignedHead } from '../lib/signing'
 import { guardXlsxZip } from '../lib/import/zip-guard'
 import { ImportRefused } from '../lib/import/limits'
 import type { OrgAccess } from '../utils/auth'
 import type { ExportVerdictDto } from '#shared/types/exports'
 import type { ReadTableSummaryDto } from '#shared/types/read-tokens'
 import { activeSigningKey, publicKeyById } from './signing-keys'
-import { findTable, findVersion } from './tables'
-import { readPoints, type PointTable } from './points-store'
+import { findTable } from './tables'
+import { signedHead, type OrgRef } from './audit-anchor'
+import { versionRecord } from './version-record'
+import { compareWithTrail } from './audit-verify'
 
 type Row = Record<string, unknown>
-interface OrgRef { id: string, slug: string, name: string }
-const person = (r: Row, p: string): Person | null => (r[`${p}_email`] ? { name: r[`${p}_name`] as string, email: r[`${p}_email`] as string } : null)
 const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null)
-
-async function pointsOf(table: PointTable, versionId: string): Promise<Pair[]> {
-  return (await readPoints(versionId, undefined, table)).map(p => [p.x, p.y])
-}
 
 /** The content object of a signed-off (or since withdrawn) version, exactly as it will be signed. */
 async function signedContent(org: OrgRef, tableId: string, number: number, keyId: string): Promise<SignedContent> {
-  const { id } = await findVersion(org.id, tableId, number)
-  const people = ['au:author_id', 'fb:filled_by', 'sb:submitted_by', 'ab:approved_by'].map((s) => {
-    const [p, col] = s.split(':')
-    return { join: `LEFT JOIN users ${p} ON ${p}.id = v.${col}`, cols: `${p}.name AS ${p}_name, ${p}.email AS ${p}_email` }
-  })
-  const [r] = await useDb().query<Row>(`
-    SELECT v.*, t.name AS table_name, t.kind, t.axis, t.axis_unit, t.value_unit, ${people.map(p => p.cols).join(', ')}
-    FROM table_versions v JOIN rate_tables t ON t.id = v.table_id ${people.map(p => p.join).join(' ')}
-    WHERE v.id = :id`,
-  { replacements: { id }, type: QueryTypes.SELECT })
-  if (!r) notFound('version')
-  if (r.status !== 'approved' && r.status !== 'retired') throw apiError(409, 'not-signed-off', 'Only a signed-off version can be exported with a signature.')
-  return {
-    format: SIGNED_FORMAT,
-    organisation: { slug: org.slug, name: org.name },
-    table: { id: tableId, name: r.table_name as string, kind: r.kind as string, axis: r.axis as string, axisUnit: r.axis_unit as string, valueUnit: r.value_unit as string },
-    version: { id, number, status: r.status as string, contentHash: r.content_hash as string, notes: r.notes as string },
-    points: await pointsOf('version_points', id),
-    fill: r.fill_spec
-      ? { spec: r.fill_spec as Json, rationale: (r.fill_rationale as string | null) ?? '', checks: (r.fill_diagnostics as Json) ?? null, money: (r.fill_money as Json) ?? null, filledBy: person(r, 'fb'), filledAt: iso(r.filled_at), values: await pointsOf('version_fill_points', id) }
-      : null,
-    madeBy: person(r, 'au'),
-    submittedBy: person(r, 'sb'),
-    submittedAt: iso(r.submitted_at),
-    approvedBy: person(r, 'ab'),
-    approvedAt: iso(r.approved_at),
-    signedAt: new Date().toISOString(),
-    keyId,
-  }
+  const record = await versionRecord(org, tableId, number)
+  if (record.version.status !== 'approved' && record.version.status !== 'retired') throw apiError(409, 'not-signed-off', 'Only a signed-off version can be exported with a signature.')
+  return { format: SIGNED_FORMAT, ...record, signedAt: new Date().toISOString(), keyId }
 }
 
 export async function exportSignedVersion(event: H3Event, access: OrgAccess, tableId: string, number: number): Promise<{ fileName: string; data: Buffer }> {
   const key = await activeSigningKey(event, access.org.id)
   const content = await signedContent(access.org, tableId, number, key.kid)
   const signature = signBytes(canonicalBytes(content), key.privateKey)
-  const data = await writeSignedWorkbook(content, { signature, keyId: key.kid, x: key.x })
-  await audit(event, { orgId: access.org.id, action: 'export.download', objectType: 'table_version', objectId: content.version.id, detail: { tableId, number, keyId: key.kid, bytes: data.length, signedAt: content.signedAt } })
+  const anchor = await signedHead(access.org, 'export', key)
+  const data = await writeSignedWorkbook(content, { signature, keyId: key.kid, x: key.x }, anchor)
+  await audit(event, { orgId: access.org.id, action: 'export.download', objectType: 'table_version', objectId: content.version.id, detail: { tableId, number, keyId: key.kid, bytes: data.length, signedAt: content.signedAt, trailHead: anchor.statement.head?.number ?? 0 } })
   const safe = content.table.name.replace(/[^A-Za-z0-9 ._-]+/g, '').trim().replace(/\s+/g, '-').slice(0, 80) || 'table'
   return { fileName: `${safe}-v${number}-signed.xlsx`, data }
 }
@@ -90,14 +61,17 @@ export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: 
       'genuine-superseded': now?.superseded_number ? `Genuine, but since superseded: version ${c.version.number} of ${c.table.name} was replaced by version ${now.superseded_number as number}.` : `Genuine, but since withdrawn: version ${c.version.number} of ${c.table.name} is no longer in force.`,
       'genuine-unknown-version': `The signature is genuine, but this organisation no longer holds version ${c.version.number} of ${c.table.name}.`,
     } as const
-    result = { ...base, verdict: kind, keyId: verdict.keyId, message: messages[kind], signed: summary(c), supersededBy: (now?.superseded_number as number | null) ?? null }
+    // the audit trail's head the file carries (format 2) against the trail now: removed newest events show here
+    const anchor = verdict.anchor?.statement
+    const trail = anchor?.head && anchor.organisation.slug === access.org.slug ? await compareWithTrail(access.org.id, anchor.head, anchor.statedAt) : null
+    result = { ...base, verdict: kind, keyId: verdict.keyId, message: messages[kind], signed: summary(c), supersededBy: (now?.superseded_number as number | null) ?? null, trail }
   }
   await audit(event, { orgId: access.org.id, action: 'export.verify', detail: { fileName, verdict: result.verdict, keyId: 'keyId' in result ? result.keyId : null, version: result.signed?.version ?? null, differences: result.differenceCount ?? 0 } })
   return result
 }
 
-function summary(c: SignedContent): NonNullable<ExportVerdictDto['signed']> {
-  return { tableId: c.table.id, tableName: c.table.name, version: c.version.number, approvedBy: c.approvedBy?.name ?? null, approvedAt: c.approvedAt, signedAt: c.signedAt, points: c.points.length, values: c.fill?.values.length ?? 0 }
+function summary(c: AnySignedContent): NonNullable<ExportVerdictDto['signed']> {
+  return { tableId: c.table.id, tableName: c.table.name, version: c.version.number, approvedBy: c.approvedBy?.name ?? null, approvedAt: c.approvedAt, signedAt: c.signedAt, points: c.points.length, values: c.fill?.values.length ?? 0, format: c.format }
 }
 
 /**
@@ -108,7 +82,7 @@ function summary(c: SignedContent): NonNullable<ExportVerdictDto['signed']> {
  * table's details): a caller that already holds it (If-None-Match) gets `null` instead of a new payload.
  */
 export async function signedOffPayload(event: H3Event, org: OrgRef, tableId: string, options: { number?: number, holds?: string } = {}):
-Promise<{ tag: string, payload: { content: SignedContent, signature: string, keyId: string } | null }> {
+Promise<{ tag: string, payload: { content: SignedContent, signature: string, keyId: string, auditHead: SignedHead } | null }> {
   await findTable(org.id, tableId)
   const [row] = await useDb().query<{ number: number }>(`SELECT number FROM table_versions WHERE org_id = :orgId AND table_id = :tableId
     AND ${options.number === undefined ? 'status = \'approved\'' : 'number = :number AND status IN (\'approved\', \'retired\')'}`,
@@ -118,7 +92,8 @@ Promise<{ tag: string, payload: { content: SignedContent, signature: string, key
   const content = await signedContent(org, tableId, row.number, key.kid)
   const tag = `W/"${contentSha256({ ...content, signedAt: '' })}"`
   if (options.holds?.split(',').map(t => t.trim()).includes(tag)) return { tag, payload: null }
-  return { tag, payload: { content, signature: signBytes(canonicalBytes(content), key.privateKey), keyId: key.kid } }
+  // the trail's head beside the content, signed on its own: the content stays the same from answer to answer
+  return { tag, payload: { content, signature: signBytes(canonicalBytes(content), key.privateKey), keyId: key.kid, auditHead: await signedHead(org, 'read-api', key) } }
 }
 
 /** The organisation's tables that have a signed-off version, as the read API lists them (only `tableIds` when given). */

@@ -6,9 +6,10 @@ import type { FillResult } from '../engine/types'
 import type { OrgAccess } from '../utils/auth'
 import type { CompareInput, SaveFillInput } from '#shared/schemas/fills'
 import type { CompareResponseDto, FillMethodsDto, SavedFillDto, StoredFillSpec } from '#shared/types/fills'
-import { findTable, findVersion } from './tables'
+import { FITTED_ON, findTable, findVersion } from './tables'
 import { insertPoints, readPoints } from './points-store'
 import { buildFillRequest } from './fill-request'
+import { specRows } from '#shared/fill-words'
 
 type Row = Record<string, unknown>
 
@@ -73,9 +74,10 @@ export async function saveFill(event: H3Event, access: OrgAccess, tableId: strin
     const spec: StoredFillSpec = { ...result.spec, bench: { grid: input.grid, label, pointsHash: version.contentHash } }
     await useDb().query(
       `UPDATE table_versions SET lock_version = lock_version + 1, fill_spec = :spec::jsonb, fill_rationale = :rationale,
-         fill_diagnostics = :diagnostics::jsonb, fill_money = :money::jsonb, filled_by = :userId, filled_at = now(), updated_at = now()
+         fill_diagnostics = :diagnostics::jsonb, fill_money = :money::jsonb, filled_by = :userId, filled_at = now(), updated_at = now(),
+         fill_points_hash = :pointsHash, fill_lock_version = lock_version + 1
        WHERE id = :id`,
-      { replacements: { id: version.id, spec: JSON.stringify(spec), rationale: input.rationale, diagnostics: JSON.stringify(result.diagnostics), money: JSON.stringify(result.money), userId: access.user.id }, transaction: t })
+      { replacements: { id: version.id, pointsHash: version.contentHash, spec: JSON.stringify(spec), rationale: input.rationale, diagnostics: JSON.stringify(result.diagnostics), money: JSON.stringify(result.money), userId: access.user.id }, transaction: t })
     await useDb().query('DELETE FROM version_fill_points WHERE version_id = :id', { replacements: { id: version.id }, transaction: t })
     await insertPoints(version.id, result.points, t, 'version_fill_points')
     await audit(event, {
@@ -91,6 +93,7 @@ export async function getFill(orgId: string, tableId: string, number: number, wi
   const { id } = await findVersion(orgId, tableId, number)
   const [found] = await useDb().query<Row>(
     `SELECT v.id, v.fill_spec, v.fill_rationale, v.fill_diagnostics, v.fill_money, v.filled_at, v.content_hash, v.lock_version,
+            ${FITTED_ON} AS fitted_on, v.fill_lock_version,
             u.id AS user_id, u.name AS user_name, (SELECT count(*)::int FROM version_fill_points f WHERE f.version_id = v.id) AS point_count
      FROM table_versions v LEFT JOIN users u ON u.id = v.filled_by
      WHERE v.id = :id`,
@@ -107,7 +110,9 @@ export async function getFill(orgId: string, tableId: string, number: number, wi
     filledBy: row.user_id ? { id: row.user_id as string, name: row.user_name as string } : null,
     filledAt: new Date(row.filled_at as string).toISOString(),
     pointCount: row.point_count as number,
-    stale: spec.bench?.pointsHash !== row.content_hash,
+    stale: row.fitted_on !== row.content_hash,
+    fittedOn: { contentHash: (row.fitted_on as string | null) ?? null, lockVersion: (row.fill_lock_version as number | null) ?? null },
+    settings: specRows(spec, METHODS, TRANSFORM_LISTING, row.point_count as number),
     lockVersion: row.lock_version as number,
   }
   if (withPoints) {

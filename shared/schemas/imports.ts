@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { AXES, AXIS_UNITS, TABLE_KINDS, VALUE_UNITS } from '../tables'
+import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFitsKind } from '../tables'
 import { IMPORT_COLUMNS_CAP } from '../import-caps'
 
 // The mapping a person builds in the wizard; the preview and the final create both
@@ -9,7 +9,7 @@ export const importColumnSchema = z.object({
   name: z.string().trim().min(1, { message: 'Give each new table a name' }).max(160),
   kind: z.enum(TABLE_KINDS),
   valueUnit: z.enum(VALUE_UNITS),
-})
+}).refine(c => unitFitsKind(c.kind, c.valueUnit), { path: ['valueUnit'], message: UNIT_KIND_MESSAGE })
 
 export const importMappingSchema = z.object({
   sheet: z.string().min(1).max(200),

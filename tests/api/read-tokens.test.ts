@@ -3,7 +3,7 @@
 import { createPublicKey, verify } from 'node:crypto'
 import canonicalize from 'canonicalize'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { BASE, Client, DEMO, FENWICK, LARKSPUR, closeOwnerDb, count, signedIn } from './helpers'
+import { BASE, Client, DEMO, FENWICK, LARKSPUR, closeOwnerDb, count, ownerDb, signedIn } from './helpers'
 import { filledDraft, newTable } from './review-helpers'
 
 afterAll(closeOwnerDb)
@@ -54,13 +54,18 @@ describe('the read API', () => {
     const curve = tables.find(t => t.name === 'Discount curve 2026-09-30')!
     const r = await read(`/api/v1/tables/${curve.id}`)
     expect(r.status).toBe(200)
-    const body = await r.json() as { content: { format: string, table: { name: string }, version: { status: string }, points: [string, string][] }, signature: string, keyId: string }
-    expect(body.content).toMatchObject({ format: 'knotwork-signed-table/1', table: { name: 'Discount curve 2026-09-30' }, version: { status: 'approved' } })
+    const body = await r.json() as { content: { format: string, table: { name: string }, version: { status: string }, points: [string, string][] }, signature: string, keyId: string, auditHead: { statement: { format: string, head: { number: number, hash: string } }, signature: string } }
+    expect(body.content).toMatchObject({ format: 'knotwork-signed-table/2', table: { name: 'Discount curve 2026-09-30' }, version: { status: 'approved' } })
     expect(body.content.points.length).toBeGreaterThan(5)
     const jwks = await (await fetch(`${BASE}/api/keys/${LARKSPUR}.json`)).json() as { keys: { kid: string }[] }
     const jwk = jwks.keys.find(k => k.kid === body.keyId)!
     const ok = verify(null, Buffer.from(canonicalize(body.content)!), createPublicKey({ key: jwk as never, format: 'jwk' }), Buffer.from(body.signature, 'base64'))
     expect(ok).toBe(true)
+    // beside the content, signed on its own: the head of the organisation's audit trail, which the trail still reaches
+    expect(body.auditHead.statement).toMatchObject({ format: 'knotwork-audit-head/1', reason: 'read-api' })
+    expect(verify(null, Buffer.from(canonicalize(body.auditHead.statement)!), createPublicKey({ key: jwk as never, format: 'jwk' }), Buffer.from(body.auditHead.signature, 'base64'))).toBe(true)
+    const [[stored]] = await ownerDb().query('SELECT hash FROM audit_events e JOIN organisations o ON o.id = e.org_id WHERE o.slug = :slug AND e.seq = :n', { replacements: { slug: LARKSPUR, n: body.auditHead.statement.head.number } }) as [[{ hash: string }], unknown]
+    expect(stored.hash).toBe(body.auditHead.statement.head.hash)
     expect(await count(`SELECT 1 FROM audit_events WHERE action = 'read-token.read' AND detail->>'token' = 'Valuation system'`)).toBeGreaterThan(0)
   })
 
