@@ -7,6 +7,7 @@ import { ImportRefused } from '../lib/import/limits'
 import type { OrgAccess } from '../utils/auth'
 import type { ExportVerdictDto } from '#shared/types/exports'
 import { activeSigningKey, publicKeyById } from './signing-keys'
+import { isUuid } from '#shared/schemas/route-params'
 
 type Row = Record<string, unknown>
 interface OrgRef { id: string, slug: string, name: string }
@@ -21,7 +22,7 @@ async function pointsOf(table: 'version_points' | 'version_fill_points', version
 
 /** The content object of a signed-off (or since withdrawn) version, exactly as it will be signed. */
 async function signedContent(org: OrgRef, tableId: string, number: number, keyId: string): Promise<SignedContent> {
-  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('version')
+  if (!isUuid(tableId)) notFound('version')
   const people = ['au:author_id', 'fb:filled_by', 'sb:submitted_by', 'ab:approved_by'].map((s) => {
     const [p, col] = s.split(':')
     return { join: `LEFT JOIN users ${p} ON ${p}.id = v.${col}`, cols: `${p}.name AS ${p}_name, ${p}.email AS ${p}_email` }
@@ -82,7 +83,7 @@ export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: 
   } else {
     const c = verdict.content
     const [now] = await useDb().query<Row>(`SELECT v.status, v.content_hash, s.number AS superseded_number FROM table_versions v LEFT JOIN table_versions s ON s.id = v.superseded_by
-      WHERE v.org_id = :orgId AND v.id = :id`, { replacements: { orgId: access.org.id, id: /^[0-9a-f-]{36}$/i.test(c.version.id) ? c.version.id : '00000000-0000-0000-0000-000000000000' }, type: QueryTypes.SELECT })
+      WHERE v.org_id = :orgId AND v.id = :id`, { replacements: { orgId: access.org.id, id: isUuid(c.version.id) ? c.version.id : '00000000-0000-0000-0000-000000000000' }, type: QueryTypes.SELECT })
     const status = now?.status as string | undefined
     const kind = status === 'approved' ? 'genuine-current' : status === 'retired' ? 'genuine-superseded' : 'genuine-unknown-version'
     const messages = {
@@ -109,7 +110,7 @@ function summary(c: SignedContent): NonNullable<ExportVerdictDto['signed']> {
  */
 export async function signedOffPayload(event: H3Event, org: OrgRef, tableId: string, options: { number?: number, holds?: string } = {}):
 Promise<{ tag: string, payload: { content: SignedContent, signature: string, keyId: string } | null }> {
-  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('table')
+  if (!isUuid(tableId)) notFound('table')
   const [row] = await useDb().query<{ number: number }>(`SELECT number FROM table_versions WHERE org_id = :orgId AND table_id = :tableId
     AND ${options.number === undefined ? 'status = \'approved\'' : 'number = :number AND status IN (\'approved\', \'retired\')'}`,
   { replacements: { orgId: org.id, tableId, number: options.number ?? null }, type: QueryTypes.SELECT })

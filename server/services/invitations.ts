@@ -8,6 +8,7 @@ import type { OrgAccess } from '../utils/auth'
 import { provisionBilling } from './billing'
 import { invitationMail } from './mail-templates'
 import { ensureBillingAccount, seatUsage } from './seats'
+import { isUuid } from '#shared/schemas/route-params'
 
 export const INVITATION_DAYS = 7
 
@@ -64,7 +65,7 @@ export async function createInvitation(event: H3Event, access: OrgAccess, email:
 }
 
 async function openInvitation(orgId: string, id: string, t: Transaction): Promise<Invitation> {
-  const invitation = /^[0-9a-f-]{36}$/i.test(id) ? await Invitation.findOne({ where: { id, orgId, ...open }, transaction: t, lock: t.LOCK.UPDATE }) : null
+  const invitation = isUuid(id) ? await Invitation.findOne({ where: { id, orgId, ...open }, transaction: t, lock: t.LOCK.UPDATE }) : null
   if (!invitation) notFound('open invitation')
   return invitation
 }

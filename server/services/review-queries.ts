@@ -3,6 +3,7 @@ import { can } from '#shared/permissions'
 import type { PersonRef, ReviewQueueItemDto, ReviewStateDto, VersionCommentDto } from '#shared/types/review'
 import type { VersionStatus } from '#shared/tables'
 import type { OrgAccess } from '../utils/auth'
+import { isUuid } from '#shared/schemas/route-params'
 
 type Row = Record<string, unknown>
 const person = (r: Row, p: string): PersonRef | null => (r[`${p}_id`] ? { id: r[`${p}_id`] as string, name: r[`${p}_name`] as string, email: r[`${p}_email`] as string } : null)
@@ -17,7 +18,7 @@ export interface VersionRow {
 
 /** The version (row-locked when a transaction is given), or 404 for a missing one or another organisation's. */
 export async function findVersion(orgId: string, tableId: string, number: number, t?: Transaction): Promise<VersionRow> {
-  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('version')
+  if (!isUuid(tableId)) notFound('version')
   const [row] = await useDb().query<VersionRow>(`
     SELECT v.id, v.number, v.status, v.table_id, rt.name AS table_name, v.author_id, v.filled_by, v.submitted_by,
            (v.fill_spec IS NOT NULL AND EXISTS (SELECT 1 FROM version_fill_points f WHERE f.version_id = v.id)) AS has_fill

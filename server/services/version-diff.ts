@@ -1,6 +1,7 @@
 import { QueryTypes } from 'sequelize'
 import { D, canonicalDecimal } from '#shared/decimal-text'
 import type { DiffRowDto, DiffSideDto, VersionDiffDto } from '#shared/types/diff'
+import { isUuid } from '#shared/schemas/route-params'
 
 // Two versions of one table compared exactly (decimal.js): given points, filled values, fill settings, money view.
 type Row = Record<string, unknown>
@@ -40,7 +41,7 @@ function compareMaps(a: Map<string, string>, b: Map<string, string>) {
 const show = (v: unknown) => (v === undefined || v === null ? '—' : typeof v === 'string' ? v : JSON.stringify(v))
 
 export async function diffVersions(orgId: string, tableId: string, a: number, b: number): Promise<VersionDiffDto> {
-  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('table')
+  if (!isUuid(tableId)) notFound('table')
   const [A, B] = [await load(orgId, tableId, a), await load(orgId, tableId, b)]
   const keys = [...new Set([...Object.keys(A.spec ?? {}), ...Object.keys(B.spec ?? {})])].filter(k => !['engineVersion', 'knotCount'].includes(k)).sort()
   const settings = keys.map(k => ({ field: k, a: show(A.spec?.[k]), b: show(B.spec?.[k]) })).filter(s => s.a !== s.b)

@@ -8,6 +8,7 @@ import { pointsContentHash } from '../lib/points-hash'
 import { RateTable } from '../database/models'
 import { insertPoints, readPoints } from './points-store'
 import { sortPoints } from '../lib/import/validate'
+import { isUuid } from '#shared/schemas/route-params'
 
 const SUMMARY_SQL = `
   SELECT v.id, v.number, v.status, v.notes, v.content_hash, v.lock_version, v.created_at, v.updated_at,
@@ -32,7 +33,7 @@ const toSummary = (r: Row): VersionSummaryDto => ({
 
 /** The table of this organisation, or 404 (another organisation's table looks the same as none). */
 export async function findTable(orgId: string, tableId: string): Promise<RateTable> {
-  const table = /^[0-9a-f-]{36}$/i.test(tableId) ? await RateTable.findOne({ where: { id: tableId, orgId } }) : null
+  const table = isUuid(tableId) ? await RateTable.findOne({ where: { id: tableId, orgId } }) : null
   return table ?? notFound('table')
 }
 
