@@ -72,7 +72,14 @@ ENV
   . "$envfile"
 fi
 
-running() { as_pg "$bin/pg_ctl" -D "$pgdata" status >/dev/null 2>&1; }
+running() {
+  as_pg "$bin/pg_ctl" -D "$pgdata" status >/dev/null 2>&1 || return 1
+  # a postmaster killed a moment ago lingers as a zombie until init reaps it, and pg_ctl still calls that running
+  local pid state
+  pid="$(head -1 "$pgdata/postmaster.pid" 2>/dev/null || true)"
+  state="$(sed 's/^.*) //' "/proc/$pid/stat" 2>/dev/null | cut -d' ' -f1 || true)"
+  [ -n "$pid" ] && [ -n "$state" ] && [ "$state" != "Z" ] # gone by now, or a zombie: not running
+}
 psql_su() { as_pg psql -X -q -v ON_ERROR_STOP=1 -h "$pgdata" -p "$KW_PG_PORT" -U postgres -d postgres "$@"; }
 
 # A commit acknowledged to the app must survive SIGKILL of PostgreSQL (and of the machine): never turn these off.
