@@ -4,12 +4,10 @@ export default defineNitroPlugin((nitro) => {
   nitro.hooks.hook('render:before', (ctx) => {
     const path = ctx.event.path.split('?')[0]!
     if (path !== '/api' && !path.startsWith('/api/')) return
-    const message = `${ctx.event.method} is not served at ${path}.`
-    ctx.response = {
-      statusCode: 405,
-      statusMessage: 'Method Not Allowed',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify(apiErrorBody(405, 'method-not-allowed', message)),
-    }
+    // /api itself is not under the catch-all (/api/**): nothing is served there
+    const body = path === '/api'
+      ? apiErrorBody(404, 'not-found', 'No such API address: /api.')
+      : apiErrorBody(405, 'method-not-allowed', `${ctx.event.method} is not served at ${path}.`)
+    ctx.response = { statusCode: body.statusCode, statusMessage: path === '/api' ? 'Not Found' : 'Method Not Allowed', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) }
   })
 })

@@ -2,15 +2,13 @@ import type { H3Event } from 'h3'
 
 /**
  * Stops reading a request body that is being refused: nothing more is kept, the rest is read and dropped for at most
- * 2 s so the client can read the answer (closing with unread bytes would reset the connection before it arrives),
- * then the socket is destroyed.
+ * 2 s so the client can read the answer, then the socket is destroyed. (Answering with Connection: close instead would
+ * make Node close the socket as soon as the answer is out, and a client still sending gets EPIPE before it reads it.)
  */
 export function stopReadingBody(event: H3Event): void {
   const req = event.node.req
   req.resume()
-  if (req.complete) return // every byte has arrived already: the connection can stay open
-  setTimeout(() => req.destroy(), 2000).unref()
-  if (!event.node.res.headersSent) event.node.res.setHeader('Connection', 'close')
+  if (!req.complete) setTimeout(() => req.destroy(), 2000).unref()
 }
 
 /** Whether the request carries a body at all (a length above zero, or chunked). */
