@@ -15,11 +15,11 @@ function decodeText(buf: Buffer): string {
   }
 }
 
-const tooManyCells = (rows: number, cols: number) => new ImportRefused(413,
-  `The file has at least ${rows.toLocaleString('en-GB')} rows × ${cols} columns = ${(rows * cols).toLocaleString('en-GB')} cells; an upload may have at most ${L.cells.toLocaleString('en-GB')}. Remove unused rows or columns, or split the file.`)
+const tooManyCells = (rows: number, cols: number, cap: number) => new ImportRefused(413,
+  `The file has at least ${rows.toLocaleString('en-GB')} rows × ${cols} columns = ${(rows * cols).toLocaleString('en-GB')} cells; an upload may have at most ${cap.toLocaleString('en-GB')}. Remove unused rows or columns, or split the file.`)
 
 /** A CSV upload as one sheet: delimiter guessed from the first lines, parsed piece by piece, rows, columns and cells capped. */
-export async function readCsv(fileName: string, buf: Buffer): Promise<StoredSheet[]> {
+export async function readCsv(fileName: string, buf: Buffer, cellsCap: number = L.cells): Promise<StoredSheet[]> {
   let lines = 0
   for (let i = buf.indexOf(10); i !== -1; i = buf.indexOf(10, i + 1)) {
     if (++lines > L.rows + 1) throw new ImportRefused(413, `The file has more than ${L.rows.toLocaleString('en-GB')} rows; split the file or remove unused rows.`)
@@ -37,7 +37,7 @@ export async function readCsv(fileName: string, buf: Buffer): Promise<StoredShee
       rows.push(row)
       colCount = Math.max(colCount, row.length)
       if (colCount > L.columns) refused ??= new ImportRefused(413, `The file uses more than ${L.columns} columns; remove unused columns.`)
-      else if (rows.length * colCount > L.cells) refused ??= tooManyCells(rows.length, colCount)
+      else if (rows.length * colCount > cellsCap) refused ??= tooManyCells(rows.length, colCount, cellsCap)
     }
   })
   let failed = false

@@ -51,10 +51,10 @@ function cellText(value: CellValue, numFmt: string | undefined): { text: string 
   return { text: null, formula: false }
 }
 
-const cellsRefused = () => new ImportRefused(413, `The workbook has more than ${L.cells.toLocaleString('en-GB')} cells (rows × columns, over all its sheets); remove unused rows, columns or sheets, or split it.`)
+const cellsRefused = (cap: number) => new ImportRefused(413, `The workbook has more than ${cap.toLocaleString('en-GB')} cells (rows × columns, over all its sheets); remove unused rows, columns or sheets, or split it.`)
 
 /** Cells (rows x columns) counted over the sheets of one upload, against the cap. */
-interface CellBudget { used: number }
+interface CellBudget { used: number; cap: number }
 
 /** The rows of one sheet into a StoredSheet, with the row, column and cell caps and formula cells noted. */
 async function storeSheet(name: string, rows: AsyncIterable<ExcelJS.Row> | Iterable<ExcelJS.Row>, budget: CellBudget): Promise<StoredSheet> {
@@ -73,7 +73,7 @@ async function storeSheet(name: string, rows: AsyncIterable<ExcelJS.Row> | Itera
     for (let i = 0; i < out.length; i++) out[i] ??= null
     stored.rows[r] = trimRow(out)
     stored.colCount = Math.max(stored.colCount, stored.rows[r]!.length)
-    if (budget.used + (r + 1) * stored.colCount > L.cells) throw cellsRefused()
+    if (budget.used + (r + 1) * stored.colCount > budget.cap) throw cellsRefused(budget.cap)
     if (performance.now() - sliceStart > 10) { await yieldToEventLoop(); sliceStart = performance.now() } // let other requests in
   }
   for (let i = 0; i < stored.rows.length; i++) stored.rows[i] ??= []
@@ -82,11 +82,11 @@ async function storeSheet(name: string, rows: AsyncIterable<ExcelJS.Row> | Itera
 }
 
 /** Whole workbook in memory (JSZip): deterministic; used up to IN_MEMORY_BYTES of inflated parts. */
-export async function readInMemory(buf: Buffer): Promise<StoredSheet[]> {
+export async function readInMemory(buf: Buffer, cellsCap: number = L.cells): Promise<StoredSheet[]> {
   const wb = new ExcelJS.Workbook()
   await wb.xlsx.load(buf as unknown as ArrayBuffer)
   const sheets: StoredSheet[] = []
-  const budget: CellBudget = { used: 0 }
+  const budget: CellBudget = { used: 0, cap: cellsCap }
   for (const ws of wb.worksheets) {
     const rows: ExcelJS.Row[] = []
     ws.eachRow({ includeEmpty: false }, row => rows.push(row))
@@ -96,12 +96,12 @@ export async function readInMemory(buf: Buffer): Promise<StoredSheet[]> {
 }
 
 /** Sheet by sheet, row by row (exceljs's streaming reader): bounded memory for large workbooks. */
-export async function readStreaming(buf: Buffer): Promise<StoredSheet[]> {
+export async function readStreaming(buf: Buffer, cellsCap: number = L.cells): Promise<StoredSheet[]> {
   const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(buf), {
     sharedStrings: 'cache', hyperlinks: 'ignore', styles: 'cache', worksheets: 'emit', entries: 'emit',
   })
   const sheets: StoredSheet[] = []
-  const budget: CellBudget = { used: 0 }
+  const budget: CellBudget = { used: 0, cap: cellsCap }
   for await (const ws of reader) {
     const sheet = ws as unknown as { name: string } & AsyncIterable<ExcelJS.Row>
     sheets.push(await storeSheet(sheet.name, sheet, budget))
@@ -118,12 +118,12 @@ export async function readStreaming(buf: Buffer): Promise<StoredSheet[]> {
 const IN_MEMORY_BYTES = 8 * 1024 * 1024
 const STREAMING_TRIES = 3
 
-async function readXlsx(buf: Buffer): Promise<StoredSheet[]> {
+async function readXlsx(buf: Buffer, cellsCap: number): Promise<StoredSheet[]> {
   const { inflatedBytes } = await guardXlsxZip(buf)
   let sheets: StoredSheet[] | null = null
   for (let attempt = 1; !sheets; attempt++) {
     try {
-      sheets = inflatedBytes <= IN_MEMORY_BYTES ? await readInMemory(buf) : await readStreaming(buf)
+      sheets = inflatedBytes <= IN_MEMORY_BYTES ? await readInMemory(buf, cellsCap) : await readStreaming(buf, cellsCap)
     } catch (e) {
       if (e instanceof ImportRefused) throw e
       console.warn(`[import] xlsx read failed (${inflatedBytes} inflated bytes, attempt ${attempt}):`, (e as Error)?.stack ?? e)
@@ -136,8 +136,8 @@ async function readXlsx(buf: Buffer): Promise<StoredSheet[]> {
   return sheets
 }
 
-/** Reads an upload already checked for size: sniffs its real kind, guards it, returns its cells. */
-export async function readWorkbook(fileName: string, buf: Buffer): Promise<{ kind: 'xlsx' | 'csv'; sheets: StoredSheet[] }> {
+/** Reads an upload already checked for size: sniffs its real kind, guards it, returns its cells (at most `cellsCap`). */
+export async function readWorkbook(fileName: string, buf: Buffer, cellsCap: number = L.cells): Promise<{ kind: 'xlsx' | 'csv'; sheets: StoredSheet[] }> {
   const kind = sniffKind(fileName, buf)
-  return { kind, sheets: kind === 'xlsx' ? await readXlsx(buf) : await readCsv(fileName, buf) }
+  return { kind, sheets: kind === 'xlsx' ? await readXlsx(buf, cellsCap) : await readCsv(fileName, buf, cellsCap) }
 }
