@@ -1,3 +1,4 @@
+import { isUuid } from '#shared/schemas/route-params'
 import { QueryTypes, type Transaction } from 'sequelize'
 import type { H3Event } from 'h3'
 import type { OrgAccess } from '../utils/auth'
@@ -10,7 +11,6 @@ import { validateMappingInSlices, type Validation } from '../lib/import/validate
 import { pointsContentHash } from '../lib/points-hash'
 import { insertPoints } from './points-store'
 import { loadMappedSheet } from './import-cells'
-import { isUuid } from '#shared/schemas/route-params'
 
 type Row = Record<string, unknown>
 interface ImportRow { id: string; file_name: string; file_kind: 'xlsx' | 'csv'; size_bytes: number; sheets: StoredSheet[]; created_at: string; expires_at: string }

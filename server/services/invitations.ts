@@ -1,3 +1,4 @@
+import { isUuid } from '#shared/schemas/route-params'
 import type { H3Event } from 'h3'
 import { Op, type Transaction } from 'sequelize'
 import type { Role } from '#shared/permissions'
@@ -8,7 +9,6 @@ import type { OrgAccess } from '../utils/auth'
 import { provisionBilling } from './billing'
 import { invitationMail } from './mail-templates'
 import { ensureBillingAccount, seatUsage } from './seats'
-import { isUuid } from '#shared/schemas/route-params'
 
 export const INVITATION_DAYS = 7
 

@@ -1,5 +1,6 @@
 import { tableParamsSchema } from '#shared/schemas/route-params'
-import { findTable, listVersions } from '~~/server/services/versions'
+import { listVersions } from '~~/server/services/versions'
+import { findTable } from '~~/server/services/tables'
 
 export default defineEventHandler(async (event) => {
   const { org } = await requirePermission(event, 'tables:read')
