@@ -4,7 +4,7 @@
 // the built server (.output) on a free port. Used by setup.ts (start, stop) and by the tests (kill and restart).
 import { spawn, spawnSync } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
-import { existsSync, openSync, readFileSync, readdirSync, rmSync } from 'node:fs'
+import { existsSync, openSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs'
 import net from 'node:net'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
@@ -70,8 +70,33 @@ function runTsx(script: string, env: Record<string, string>) {
   if (r.status !== 0) throw new Error(`${script} failed: ${r.stderr || r.stdout}`)
 }
 
+/**
+ * What an earlier run left when it was killed before its teardown (scripts/test.sh bounds the step with `timeout`): its
+ * app server and its cluster, found by the pid in their names, stopped and removed once that run's process is gone.
+ */
+function removeLeftovers() {
+  const data = path.join(ROOT, '.data')
+  for (const name of readdirSync(data)) {
+    const run = /^(?:pg-reliability-|reliability-server-)(\d+)(?:\.env|\.log|\.pid)?$/.exec(name)?.[1]
+    if (!run || alive(Number(run))) continue
+    const pidFile = path.join(data, `reliability-server-${run}.pid`)
+    const serverPid = existsSync(pidFile) ? Number(readFileSync(pidFile, 'utf8').trim()) : 0
+    if (serverPid && alive(serverPid) && readFileSync(`/proc/${serverPid}/cmdline`, 'utf8').includes('.output/server/index.mjs')) process.kill(serverPid, 'SIGKILL')
+    if (name.startsWith('pg-reliability-') && !name.endsWith('.env')) stopCluster(name)
+    else rmSync(path.join(data, name), { force: true })
+  }
+}
+
+function stopCluster(pgDir: string) {
+  const pgdata = path.join(ROOT, '.data', pgDir)
+  const bin = readdirSync('/usr/lib/postgresql').map(v => `/usr/lib/postgresql/${v}/bin/pg_ctl`).find(existsSync)
+  if (bin) spawnSync(process.getuid?.() === 0 ? 'runuser' : bin, [...(process.getuid?.() === 0 ? ['-u', 'postgres', '--', bin] : []), '-D', pgdata, '-m', 'immediate', 'stop'], { timeout: 60_000 })
+  rmSync(pgdata, { recursive: true, force: true })
+}
+
 export async function startStack(): Promise<StackInfo> {
   if (!existsSync(path.join(ROOT, '.output/server/index.mjs'))) throw new Error('No build: run `npx nuxt build` (scripts/test.sh does) before the reliability suite')
+  try { removeLeftovers() } catch (error) { console.warn(`[reliability] leftovers of an earlier run not removed: ${(error as Error).message}`) }
   const pgDir = `pg-reliability-${process.pid}`
   const info = { pgDir, pgEnv: `${pgDir}.env` }
   runDbScript(info)
@@ -92,6 +117,7 @@ export async function startStack(): Promise<StackInfo> {
       NUXT_SESSION_PASSWORD: randomBytes(32).toString('hex'), NUXT_SIGNING_SECRET: randomBytes(32).toString('hex'),
     },
   })
+  writeFileSync(path.join(ROOT, '.data', `reliability-server-${process.pid}.pid`), String(server.pid))
   await waitFor('the reliability app server to answer', async () => (await fetch(`${baseUrl}/api/nope`)).status === 404, 120_000, 250)
   return { baseUrl, ownerUrl: urls.owner, serverPid: server.pid!, ...info }
 }
@@ -99,11 +125,9 @@ export async function startStack(): Promise<StackInfo> {
 export async function stopStack(info: StackInfo) {
   try { process.kill(info.serverPid, 'SIGTERM') } catch { /* already gone */ }
   await waitFor('the app server to stop', () => !alive(info.serverPid), 30_000).catch(() => { try { process.kill(info.serverPid, 'SIGKILL') } catch { /* gone */ } })
-  const pgdata = path.join(ROOT, '.data', info.pgDir)
-  const bin = readdirSync('/usr/lib/postgresql').map(v => `/usr/lib/postgresql/${v}/bin/pg_ctl`).find(existsSync)
-  if (bin) spawnSync(process.getuid?.() === 0 ? 'runuser' : bin, [...(process.getuid?.() === 0 ? ['-u', 'postgres', '--', bin] : []), '-D', pgdata, '-m', 'immediate', 'stop'], { timeout: 60_000 })
-  rmSync(pgdata, { recursive: true, force: true })
+  stopCluster(info.pgDir)
   rmSync(path.join(ROOT, '.data', info.pgEnv), { force: true })
+  rmSync(path.join(ROOT, '.data', `reliability-server-${process.pid}.pid`), { force: true })
 }
 
 /** Whether a process still runs (a zombie, killed but not yet reaped by init, does not). */
