@@ -1,3 +1,5 @@
+import { fileURLToPath } from 'node:url'
+
 // Knotwork: Nuxt 4 with the classic root layout (srcDir pinned, see DEVELOPERS.md).
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
@@ -74,5 +76,13 @@ export default defineNuxtConfig({
   },
   vite: {
     optimizeDeps: { include: [] },
+  },
+  hooks: {
+    // Our error handler runs first (an unreachable database becomes 503), then Nuxt's own (JSON or the error page).
+    'nitro:config'(config) {
+      const ours = fileURLToPath(new URL('./server/error-handlers/database-unavailable.ts', import.meta.url))
+      const theirs = config.errorHandler ? [config.errorHandler].flat() : []
+      config.errorHandler = [ours, ...theirs]
+    },
   },
 })

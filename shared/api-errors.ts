@@ -4,6 +4,8 @@ export const API_ERROR_CODES = [
   // input
   'invalid-input', // a field or parameter failed validation (data.issues lists every problem)
   'invalid-json', // the body is not JSON
+  'unsupported-media-type', // 415: a JSON route was sent another content type
+  'body-too-large', // 413: the request body passed its route's limit (counted as the bytes arrive)
   'engine-refused', // the engine refused the request (data.engineCode names the engine's reason)
   'import-refused', // an uploaded file was refused (kind, size, structure)
   'import-blocked', // the upload's values have blocking findings (data.findings)
@@ -16,7 +18,8 @@ export const API_ERROR_CODES = [
   'read-token-required',
   'role-forbidden',
   'own-work', // maker-checker: nobody signs off their own work
-  'not-found', // missing, or another organisation's (the same answer on purpose)
+  'not-found', // missing, or another organisation's (the same answer on purpose); also an unknown /api/ address
+  'method-not-allowed', // 405: a known /api/ address asked with a method it does not serve
   'link-expired',
   // state
   'draft-conflict', // someone saved the draft after it was read (data.lockVersion is the current one)
@@ -42,5 +45,6 @@ export const API_ERROR_CODES = [
   'mail-failed',
   'cancelled',
   'try-later',
+  'service-unavailable', // 503: the database cannot be reached just now (Retry-After); the app recovers by itself
 ] as const
 export type ApiErrorCode = (typeof API_ERROR_CODES)[number]

@@ -7,9 +7,10 @@ import type { ColumnSuggestion, ImportCommitDto, ImportDto, ImportFinding, Impor
 import { IMPORT_LIMITS, ImportRefused } from '../lib/import/limits'
 import { readWorkbook, type StoredSheet } from '../lib/import/read-workbook'
 import { guessAxis, proposeHeaderRow, suggestColumns } from '../lib/import/analyse'
-import { validateMapping, type Validation } from '../lib/import/validate'
+import { validateMappingInSlices, type Validation } from '../lib/import/validate'
 import { pointsContentHash } from '../lib/points-hash'
 import { insertPoints } from './points-store'
+import { loadMappedSheet } from './import-cells'
 
 type Row = Record<string, unknown>
 interface ImportRow { id: string; file_name: string; file_kind: 'xlsx' | 'csv'; size_bytes: number; sheets: StoredSheet[]; created_at: string; expires_at: string }
@@ -34,25 +35,33 @@ export async function createImport(event: H3Event, access: OrgAccess, fileName: 
     const [row] = await useDb().query<ImportRow>(
       `INSERT INTO imports (org_id, owner_id, file_name, file_kind, size_bytes, sheets, expires_at)
        VALUES (:orgId, :ownerId, :fileName, :kind, :size, :sheets::jsonb, now() + make_interval(hours => :hours))
-       RETURNING id, file_name, file_kind, size_bytes, sheets, created_at, expires_at`,
+       RETURNING id, file_name, file_kind, size_bytes, created_at, expires_at`,
       { replacements: { orgId: access.org.id, ownerId: access.user.id, fileName, kind, size: data.length, sheets: JSON.stringify(sheets), hours: IMPORT_LIMITS.keepHours }, type: QueryTypes.SELECT, transaction: t })
     await audit(event, { orgId: access.org.id, action: 'import.upload', objectType: 'import', objectId: row!.id, detail: { fileName, kind, sizeBytes: data.length, sheets: sheets.map(s => ({ name: s.name, rows: s.rows.length })) } }, t)
-    return toDto(row!)
+    return toDto({ ...row!, sheets }) // the cells just stored, not read back
   })
 }
 
-/** The caller's own, unexpired import in this organisation; 404 for anyone else's. */
-async function loadImport(access: OrgAccess, id: string, t?: Transaction, lock = false): Promise<ImportRow> {
+type ImportHead = Omit<ImportRow, 'sheets'>
+
+/**
+ * The caller's own, unexpired import in this organisation (without its cells, which preview and commit read through
+ * loadMappedSheet); 404 for anyone else's.
+ */
+async function loadImport(access: OrgAccess, id: string, t?: Transaction, lock = false, columns = ''): Promise<ImportHead> {
   if (!isUuid(id)) notFound('upload')
-  const [row] = await useDb().query<ImportRow>(
-    `SELECT id, file_name, file_kind, size_bytes, sheets, created_at, expires_at FROM imports
+  const [row] = await useDb().query<ImportHead>(
+    `SELECT id, file_name, file_kind, size_bytes, created_at, expires_at${columns} FROM imports
      WHERE id = :id AND org_id = :orgId AND owner_id = :ownerId AND expires_at > now()${lock ? ' FOR UPDATE' : ''}`,
     { replacements: { id, orgId: access.org.id, ownerId: access.user.id }, type: QueryTypes.SELECT, transaction: t })
   return row ?? notFound('upload (it may have expired; upload the file again)')
 }
 
+/** The same with every sheet's cells, for the wizard's first steps. */
+const loadImportWithSheets = (access: OrgAccess, id: string) => loadImport(access, id, undefined, false, ', sheets') as Promise<ImportRow>
+
 export async function describeImport(access: OrgAccess, id: string, sheetName?: string, headerRow?: number): Promise<ImportDto & { sheet: ImportSheetDto; columns: ColumnSuggestion[]; axis: ReturnType<typeof guessAxis> }> {
-  const row = await loadImport(access, id)
+  const row = await loadImportWithSheets(access, id)
   const sheet = row.sheets.find(s => s.name === sheetName) ?? row.sheets[0]!
   const guess = proposeHeaderRow(sheet.rows)
   const header = headerRow !== undefined && headerRow < sheet.rows.length ? headerRow : guess
@@ -72,22 +81,22 @@ async function nameClashes(orgId: string, m: ImportMapping, t?: Transaction): Pr
   return rows.map(r => ({ severity: 'error' as const, code: 'name-taken', sheet: m.sheet, cell: null, row: null, col: m.columns.find(c => c.name.toLowerCase() === r.name.toLowerCase())!.index, message: `A table called "${r.name}" already exists; choose another name.` }))
 }
 
-async function check(access: OrgAccess, row: ImportRow, m: ImportMapping, t?: Transaction): Promise<Validation> {
-  const sheet = row.sheets.find(s => s.name === m.sheet)
+/** The mapped cells of the chosen sheet, checked against every rule of the import. */
+async function check(access: OrgAccess, id: string, m: ImportMapping, t?: Transaction): Promise<{ sheet: StoredSheet; v: Validation }> {
+  const sheet = await loadMappedSheet(id, m, t)
   if (!sheet) throw apiError(400, 'invalid-input', `The upload has no sheet '${m.sheet}'.`)
   const width = sheet.colCount
   if (m.headerRow >= sheet.rows.length || m.axisColumn >= width || m.columns.some(c => c.index >= width)) {
     throw apiError(400, 'invalid-input', 'The header row or a column is outside the sheet.')
   }
-  const v = validateMapping(sheet, m)
+  const v = await validateMappingInSlices(sheet, m)
   v.findings.unshift(...await nameClashes(access.org.id, m, t))
-  return v
+  return { sheet, v }
 }
 
 export async function previewImport(access: OrgAccess, id: string, m: ImportMapping): Promise<ImportPreviewDto> {
-  const row = await loadImport(access, id)
-  const v = await check(access, row, m)
-  const sheet = row.sheets.find(s => s.name === m.sheet)!
+  await loadImport(access, id)
+  const { sheet, v } = await check(access, id, m)
   const shown = new Set<number>(v.flaggedRows.slice(0, 500))
   for (let r = m.headerRow + 1; r < sheet.rows.length && r <= m.headerRow + 30; r++) shown.add(r)
   const columns = [m.axisColumn, ...m.columns.map(c => c.index)]
@@ -105,7 +114,7 @@ export async function previewImport(access: OrgAccess, id: string, m: ImportMapp
 export async function commitImport(event: H3Event, access: OrgAccess, id: string, m: ImportMapping, acceptWarnings: boolean): Promise<ImportCommitDto> {
   return inTransaction(async (t) => {
     const row = await loadImport(access, id, t, true)
-    const v = await check(access, row, m, t)
+    const { v } = await check(access, id, m, t)
     const errors = v.findings.filter(f => f.severity === 'error')
     const warnings = v.findings.filter(f => f.severity === 'warning')
     if (errors.length) throw apiError(422, 'import-blocked', `${errors.length} problem(s) block the import: ${errors[0]!.message}`, { findings: v.findings })

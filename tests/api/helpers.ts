@@ -20,14 +20,14 @@ function nextAddress() {
 
 export interface Reply<T = unknown> { status: number; body: T; headers: Headers }
 
-/** A person's browser: keeps the session cookie between requests. */
+/** A person's browser: keeps the session cookie between requests (against BASE, or another server's base URL). */
 export class Client {
   cookie = ''
-  constructor(readonly address = nextAddress()) {}
+  constructor(readonly address = nextAddress(), readonly base = BASE) {}
 
   async req<T = unknown>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply<T>> {
     const isRaw = body instanceof Uint8Array || body instanceof FormData || typeof body === 'string'
-    const res = await fetch(BASE + path, {
+    const res = await fetch(this.base + path, {
       method,
       headers: {
         ...(body !== undefined && !isRaw ? { 'content-type': 'application/json' } : {}),
@@ -62,8 +62,8 @@ export class Client {
   }
 }
 
-export async function signedIn(email: string, password = DEMO_PASSWORD) {
-  return new Client().login(email, password)
+export async function signedIn(email: string, password = DEMO_PASSWORD, base = BASE) {
+  return new Client(undefined, base).login(email, password)
 }
 
 export function uniqueEmail(prefix = 'person') {
