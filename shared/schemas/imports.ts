@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 import { AXES, AXIS_UNITS, TABLE_KINDS, VALUE_UNITS } from '../tables'
 import { IMPORT_COLUMNS_CAP } from '../import-caps'
 

@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 import { AXES, AXIS_UNITS, TABLE_KINDS, VALUE_UNITS } from '../tables'
 import { MAX_SIGNIFICANT_DIGITS, canonicalDecimal, parseNumberText } from '../decimal-text'
 
