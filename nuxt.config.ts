@@ -1,4 +1,6 @@
 // Knotwork: Nuxt 4 with the classic root layout (srcDir pinned, see DEVELOPERS.md).
+const NOTHING_RUNS = "default-src 'none'; frame-ancestors 'none'"
+
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
@@ -63,8 +65,11 @@ export default defineNuxtConfig({
     corsHandler: false,
   },
   routeRules: {
-    // JSON and files from the API: nothing in them may run, load or be framed
-    '/api/**': { headers: { 'content-security-policy': "default-src 'none'; frame-ancestors 'none'", 'cross-origin-resource-policy': 'same-origin' } },
+    // JSON, files from the API and static files: nothing in them may run, load or be framed (pages get the policy above)
+    '/api/**': { headers: { 'content-security-policy': NOTHING_RUNS, 'cross-origin-resource-policy': 'same-origin' } },
+    '/_nuxt/**': { headers: { 'content-security-policy': NOTHING_RUNS } },
+    '/demo/**': { headers: { 'content-security-policy': NOTHING_RUNS } },
+    '/favicon.svg': { headers: { 'content-security-policy': NOTHING_RUNS } },
   },
   css: [
     '@fontsource/source-sans-3/400.css',

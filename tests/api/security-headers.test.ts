@@ -59,7 +59,13 @@ describe('security headers', () => {
     expect(forged.status).toBe(403)
     expectEveryResponseHeaders(forged, 'forgery refusal')
     expectEveryResponseHeaders(await raw('/orgs/no-such-org'), 'redirect')
-    expectEveryResponseHeaders(await raw('/favicon.svg'), 'static file')
+    const html = await (await raw('/signin')).text()
+    for (const path of ['/favicon.svg', /src="(\/_nuxt\/[^"]+\.js)"/.exec(html)![1]!, '/demo/larkspur-pensioner-study-2026.csv']) {
+      const file = await raw(path)
+      expect(file.status, path).toBe(200)
+      expectEveryResponseHeaders(file, path)
+      expect(file.headers.get('content-security-policy'), path).toBe("default-src 'none'; frame-ancestors 'none'")
+    }
   })
 
   it('over HTTPS: HSTS on every answer, and the session cookie is __Host- prefixed (Secure, Path=/, no Domain)', async () => {
