@@ -46,7 +46,7 @@ export default defineNuxtConfig({
       crossOriginEmbedderPolicy: 'credentialless',
       crossOriginOpenerPolicy: 'same-origin',
       crossOriginResourcePolicy: 'same-origin',
-      // 'same-origin' keeps the Origin header on the app's own writes (with 'no-referrer' browsers send "Origin: null")
+      // no URL of ours (table and version ids) leaves for another site; same-origin requests keep their referrer
       referrerPolicy: 'same-origin',
       strictTransportSecurity: false,
       xContentTypeOptions: 'nosniff',

@@ -8,8 +8,8 @@
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS'])
 /** Routes that prove who is calling another way: Stripe's signature, the read API's bearer token (plain segments only). */
 const EXEMPT = [/^\/api\/webhooks\/stripe$/, /^\/api\/v1(\/[\w-]+)+$/]
-/** Routes that take a multipart upload instead of JSON: the origin is still checked. */
-const MULTIPART = [/^\/api\/orgs\/[\w-]+\/imports$/]
+/** Routes that take a multipart upload (readUpload) instead of JSON: the origin is still checked. */
+const MULTIPART = [/^\/api\/orgs\/[\w-]+\/imports$/, /^\/api\/orgs\/[\w-]+\/exports\/verify$/]
 const FORM_TYPES = new Set(['', 'application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'])
 
 function hasBody(event: Parameters<typeof getRequestHeader>[0]): boolean {

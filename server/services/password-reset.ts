@@ -31,19 +31,22 @@ async function startReset(event: H3Event, email: string): Promise<void> {
   await sendMail(passwordResetMail(user.email, appLink(`/reset-password/${token}`)))
 }
 
-/** Sets the new password once per token; every open reset of the person is spent and all sessions end. */
+/** Sets the new password once per token; every open reset of the person is spent, all sessions end, and the account's
+ * failed sign-ins are forgotten. */
 export async function confirmPasswordReset(event: H3Event, token: string, password: string): Promise<void> {
   await openReset(token) // a link that does not work costs no hash
   const passwordHash = await hashPassword(password)
-  const userId = await inTransaction(async (t) => {
+  const user = await inTransaction(async (t) => {
     const reset = await openReset(token, t)
     const user = (await User.findByPk(reset.userId, { transaction: t }))!
     await user.update({ passwordHash, passwordChangedAt: new Date() }, { transaction: t })
     await PasswordReset.update({ usedAt: new Date() }, { where: { userId: user.id, usedAt: null }, transaction: t })
     await audit(event, { action: 'auth.password-reset', objectType: 'user', objectId: user.id, actor: { id: user.id, email: user.email } }, t)
-    return user.id
+    return user
   })
-  await revokeSessions(userId, 'password reset')
+  await revokeSessions(user.id, 'password reset')
+  // the owner proved the mailbox: failed guesses by someone else no longer keep them out (a malicious lockout ends here)
+  await clearThrottle(accountRule(user.email))
 }
 
 async function openReset(token: string, t?: Transaction): Promise<PasswordReset> {

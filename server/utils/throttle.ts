@@ -82,3 +82,8 @@ export async function holdAttempt(event: H3Event, rules: ThrottleRule[], what: s
   pruneNow().catch(error => console.error('[throttle] prune failed:', error))
   return { release: async () => { for (const t of taken) await giveBack(t.key, t.slot) } }
 }
+
+/** Empties a rule's window, e.g. an account's failed sign-ins once its owner has proved the mailbox (password reset). */
+export async function clearThrottle(rule: ThrottleRule): Promise<void> {
+  await useDb().query('DELETE FROM auth_throttles WHERE key = :key', { replacements: { key: rule.key } })
+}

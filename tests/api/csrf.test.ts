@@ -1,3 +1,4 @@
+import { existsSync, readFileSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { BASE, Client, DEMO, LARKSPUR, ORIGIN, closeOwnerDb, count, postRefusable, signedIn, type Reply } from './helpers'
 import { ROUTES } from './route-matrix/index'
@@ -48,6 +49,15 @@ describe('cross-site request forgery', () => {
   it('every route that changes something declares how it is protected (route matrix, csrf column)', () => {
     expect(mutating.filter(([, entry]) => !entry.csrf).map(([key]) => key)).toEqual([])
     expect(mutating.filter(([, entry]) => entry.csrf === 'exempt').map(([key]) => key)).toEqual(['POST /api/webhooks/stripe'])
+    // a handler that reads an upload is a multipart route, and only those are
+    const readsUpload = (key: string) => {
+      const [method, route] = key.split(' ') as [string, string]
+      const base = `server${route}`
+      const file = [`${base}.${method.toLowerCase()}.ts`, `${base}/index.${method.toLowerCase()}.ts`].find(f => existsSync(f))!
+      return readFileSync(file, 'utf8').includes('readUpload(')
+    }
+    expect(mutating.filter(([key]) => readsUpload(key)).map(([key]) => key).sort())
+      .toEqual(mutating.filter(([, entry]) => entry.csrf === 'multipart').map(([key]) => key).sort())
   })
 
   for (const [key, entry] of mutating) {

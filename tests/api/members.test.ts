@@ -203,4 +203,14 @@ describe('password reset', () => {
       expect((await new Client().post('/api/auth/password-reset', { email: target })).status).toBe(429)
     }
   })
+
+  it('lifts a lock someone else put on the account: after a reset its owner signs in at once', async () => {
+    const { email } = await freshOrg()
+    for (let i = 0; i < 10; i++) expect((await new Client().post('/api/auth/login', { email, password: `someone else ${i}` })).status).toBe(401)
+    expect((await new Client().post('/api/auth/login', { email, password: 'still guessing' })).status).toBe(429)
+    await new Client().post('/api/auth/password-reset', { email })
+    const token = tokenIn(await waitForMail(email, 'password'), '/reset-password')
+    expect((await new Client().post('/api/auth/password-reset/confirm', { token, password: 'the owner\u2019s new passphrase' })).status).toBe(200)
+    expect((await new Client().post('/api/auth/login', { email, password: 'the owner\u2019s new passphrase' })).status).toBe(200)
+  })
 })

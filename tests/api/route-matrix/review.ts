@@ -30,6 +30,6 @@ export const reviewRoutes: Record<string, RouteExpectation> = {
   'GET /api/orgs/[org]/audit/verify': { expect: EVERY_MEMBER },
   'GET /api/orgs/[org]/signing-keys': { expect: EVERY_MEMBER },
   'POST /api/orgs/[org]/signing-keys/rotate': { csrf: 'json', expect: ROLE_ONLY(['admin']) },
-  'POST /api/orgs/[org]/exports/verify': { csrf: 'json', expect: EXPORTERS },
+  'POST /api/orgs/[org]/exports/verify': { csrf: 'multipart', expect: EXPORTERS },
   'GET /api/keys/[file]': { path: ctx => `/api/keys/${ctx.org}.json`, expect: PUBLIC },
 }
