@@ -39,7 +39,8 @@ export async function writeSession(event: H3Event, data: { user: User; sid: stri
   await replaceUserSession(event, data, { name: sessionCookieName(event) })
 }
 
-/** Deletes the cookie (sign-out). */
+/** Deletes the cookie (sign-out); a request without one is answered without a cookie. */
 export async function endSession(event: H3Event): Promise<void> {
-  await clearUserSession(event, { name: sessionCookieName(event) })
+  const name = sessionCookieName(event)
+  if (getCookie(event, name)) await clearUserSession(event, { name })
 }

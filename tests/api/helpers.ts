@@ -14,11 +14,13 @@ export const DEMO = DEMO_PEOPLE
 /** The app's own origin (scripts/test.sh sets NUXT_PUBLIC_BASE_URL to KW_BASE_URL): every change a browser makes names it. */
 export const ORIGIN = new URL(BASE).origin
 
-let ipCounter = 0
-/** A distinct client address per client (the test server trusts X-Forwarded-For), so throttling tests stay apart. */
+/**
+ * A client address of its own per client (the test server trusts X-Forwarded-For), so the per-address throttles of one
+ * test never meet another's: random, because a counter starts again in every test file within the 15-minute windows.
+ */
 function nextAddress() {
-  ipCounter++
-  return `10.${(process.pid >> 8) & 255}.${process.pid & 255}.${ipCounter % 250 + 1}`
+  const [a, b, c] = randomBytes(3)
+  return `10.${a}.${b}.${c! % 254 + 1}`
 }
 
 export interface Reply<T = unknown> { status: number; body: T; headers: Headers }
