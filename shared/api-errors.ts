@@ -16,6 +16,8 @@ export const API_ERROR_CODES = [
   'wrong-credentials',
   'wrong-password',
   'read-token-required',
+  'cross-origin', // a change that did not come from one of the app's own pages (Origin / Sec-Fetch-Site)
+  'json-required', // a JSON route was sent a form body (a type a cross-site page can send without asking)
   'role-forbidden',
   'own-work', // maker-checker: nobody signs off their own work
   'not-found', // missing, or another organisation's (the same answer on purpose); also an unknown /api/ address

@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 import { parseDay } from '../plain-text'
 
 // The audit trail's filters, shared by the list and the CSV download. Days are sent as YYYY-MM-DD (the page reads them

@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFitsKind } from '../tables'
 import { IMPORT_COLUMNS_CAP, IMPORT_VALUE_COLUMNS_CAP } from '../import-caps'
 

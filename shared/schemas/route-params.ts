@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 
 // Route parameters: every id in a URL is checked here before it can reach a PostgreSQL ::uuid cast (where anything
 // malformed would fail as a 500). A parameter that is not well formed names nothing, so readValidParams answers it as

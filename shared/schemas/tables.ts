@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFitsKind } from '../tables'
 import { MAX_SIGNIFICANT_DIGITS, canonicalDecimal, parseNumberText } from '../decimal-text'
 

@@ -1,6 +1,6 @@
 import http from 'node:http'
 import { afterAll, describe, expect, it } from 'vitest'
-import { BASE, type Client, DEMO, LARKSPUR, closeOwnerDb, count, ownerDb, signedIn } from './helpers'
+import { BASE, type Client, DEMO, LARKSPUR, ORIGIN, closeOwnerDb, count, ownerDb, signedIn } from './helpers'
 import { MINIMAL_PARTS, footprint, upload, workbook, zip } from './import-helpers'
 
 afterAll(closeOwnerDb)
@@ -23,7 +23,7 @@ describe('upload size', () => {
     const before = await footprint()
     const url = new URL(`${BASE}/api/orgs/${LARKSPUR}/imports`)
     const outcome = await new Promise<{ status: number; sentMiB: number }>((resolve, reject) => {
-      const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'x-forwarded-for': client.address, 'content-type': 'multipart/form-data; boundary=KW', 'transfer-encoding': 'chunked' } })
+      const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'origin': ORIGIN, 'x-forwarded-for': client.address, 'content-type': 'multipart/form-data; boundary=KW', 'transfer-encoding': 'chunked' } })
       let sent = 0
       let status = 0
       req.on('response', (res) => { status = res.statusCode ?? 0; res.resume(); res.on('end', () => resolve({ status, sentMiB: sent / 1048576 })) })

@@ -51,6 +51,13 @@ describe('Stripe webhook', () => {
     expect((await postWebhook(payload, { timestamp: Math.floor(Date.now() / 1000) - 200 })).status).toBe(200)
   })
 
+  it('refuses a timestamp more than 5 minutes in the future (the SDK checks only the past), and allows clock skew below that', async () => {
+    const payload = eventOf('customer.updated', { id: 'cus_nobody', object: 'customer' } as { id: string })
+    expect((await postWebhook(payload, { timestamp: Math.floor(Date.now() / 1000) + 600 })).status).toBe(400)
+    expect((await postWebhook(payload, { timestamp: Math.floor(Date.now() / 1000) + 330 })).status).toBe(400)
+    expect((await postWebhook(payload, { timestamp: Math.floor(Date.now() / 1000) + 60 })).status).toBe(200)
+  })
+
   it('processes the same event once', async () => {
     const { client, slug } = await freshOrg()
     await client.get(`/api/orgs/${slug}/billing`)

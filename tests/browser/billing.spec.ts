@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto'
-import { expect, test } from '@playwright/test'
+import { expect, test } from './fixtures'
 import { PEOPLE, shot, signIn, useOwnAddress } from './helpers'
 
 const INBOX = (process.env.KW_MAIL_INBOX_URL ?? '').replace(/\/+$/, '')
