@@ -1,3 +1,6 @@
+import path from 'node:path'
+import { buildWorker } from './scripts/build-worker'
+
 // Knotwork: Nuxt 4 with the classic root layout (srcDir pinned, see DEVELOPERS.md).
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
@@ -74,5 +77,14 @@ export default defineNuxtConfig({
   },
   vite: {
     optimizeDeps: { include: [] },
+  },
+  hooks: {
+    // The worker threads run their own bundle (server/lib/work/worker.ts, see DEVELOPERS.md "Worker threads"): written
+    // beside the server Nitro has just compiled (.output/server/workers/; in dev under .nuxt/), where pool.ts looks.
+    'nitro:init'(nitro) {
+      nitro.hooks.hook('compiled', async () => {
+        await buildWorker(path.join(nitro.options.output.serverDir, 'workers'), { minify: !nitro.options.dev })
+      })
+    },
   },
 })

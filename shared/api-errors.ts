@@ -39,7 +39,8 @@ export const API_ERROR_CODES = [
   'service-unreachable',
   'not-configured',
   'mail-failed',
-  'cancelled',
+  'cancelled', // the run was cancelled (by its owner, or its connection closed)
+  'run-unfinished', // the run has no result yet (data.status says where it is)
   'try-later',
 ] as const
 export type ApiErrorCode = (typeof API_ERROR_CODES)[number]

@@ -44,10 +44,10 @@ export async function listSigningKeys(orgId: string): Promise<SigningKeyDto[]> {
   return rows.map(r => ({ ...publicJwk(r.public_x), status: r.status, createdAt: new Date(r.created_at).toISOString(), retiredAt: r.retired_at ? new Date(r.retired_at).toISOString() : null }))
 }
 
-/** Public key (x) of a key id of this organisation, current or retired; null when unknown. */
-export async function publicKeyById(orgId: string, kid: string): Promise<string | null> {
-  const [row] = await useDb().query<{ public_x: string }>('SELECT public_x FROM org_signing_keys WHERE org_id = :orgId AND kid = :kid', { replacements: { orgId, kid }, type: QueryTypes.SELECT })
-  return row?.public_x ?? null
+/** Every public key (x) of this organisation by key id, current and retired: what a workbook may be signed with. */
+export async function publicKeysOf(orgId: string): Promise<Record<string, string>> {
+  const rows = await useDb().query<{ kid: string; public_x: string }>('SELECT kid, public_x FROM org_signing_keys WHERE org_id = :orgId', { replacements: { orgId }, type: QueryTypes.SELECT })
+  return Object.fromEntries(rows.map(r => [r.kid, r.public_x]))
 }
 
 export async function rotateSigningKey(event: H3Event, access: OrgAccess): Promise<SigningKeyDto[]> {

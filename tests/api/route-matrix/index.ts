@@ -5,6 +5,7 @@ import { membersRoutes } from './members'
 import { billingRoutes } from './billing'
 import { reviewRoutes } from './review'
 import { readTokenRoutes } from './read-tokens'
+import { runsRoutes } from './runs'
 import type { RouteExpectation } from './types'
 
 // Each feature adds its own file and spreads it here.
@@ -16,4 +17,5 @@ export const ROUTES: Record<string, RouteExpectation> = {
   ...reviewRoutes,
   ...fillsRoutes,
   ...readTokenRoutes,
+  ...runsRoutes,
 }

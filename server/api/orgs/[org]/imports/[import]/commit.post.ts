@@ -8,5 +8,5 @@ export default defineEventHandler(async (event) => {
   const { import: id } = readValidParams(event, importParamsSchema)
   const { mapping, acceptWarnings } = await readValidBody(event, importCommitSchema)
   setResponseStatus(event, 201)
-  return commitImport(event, access, id, mapping, acceptWarnings)
+  return commitImport(event, access, id, mapping, acceptWarnings, requestSignal(event))
 })

@@ -7,5 +7,5 @@ export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'tables:edit')
   const { import: id } = readValidParams(event, importParamsSchema)
   const mapping = await readValidBody(event, importMappingSchema)
-  return previewImport(access, id, mapping)
+  return previewImport(access, id, mapping, requestSignal(event))
 })

@@ -5,7 +5,7 @@ import { exportSignedVersion } from '~~/server/services/exports'
 export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'exports:download')
   const { table, version } = readValidParams(event, versionParamsSchema)
-  const { fileName, data } = await exportSignedVersion(event, access, table, version)
+  const { fileName, data } = await exportSignedVersion(event, access, table, version, requestSignal(event))
   setResponseHeaders(event, {
     'content-type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
     'content-disposition': `attachment; filename="${fileName}"`,

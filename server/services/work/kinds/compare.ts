@@ -1,0 +1,23 @@
+import type { CompareInput } from '#shared/schemas/fills'
+import { runTask } from '~~/server/lib/work/pool'
+import { findTable, findVersion } from '../../tables'
+import { readPoints } from '../../points-store'
+import { buildFillRequest } from '../../fill-request'
+import type { RunExecutor } from './index'
+
+export interface CompareRunInput { tableId: string, number: number, compare: CompareInput }
+
+/** Every chosen method over the version's stored points, in a worker thread; the answer is CompareResponseDto as JSON. */
+export const executeCompare: RunExecutor = async ({ run, signal, progress }) => {
+  const { tableId, number, compare } = run.input as unknown as CompareRunInput
+  const table = await findTable(run.orgId, tableId)
+  const version = await findVersion(run.orgId, tableId, number)
+  const knots = await readPoints(version.id)
+  const requests = compare.methods.map(m => buildFillRequest({ knots, kind: table.kind }, compare, m))
+  const methods = compare.methods.map((m, i) => ({ method: m.method, options: m.options ?? {}, transform: requests[i]!.transform, ...(m.label ? { label: m.label } : {}) }))
+  const out = await runTask('compare', { request: requests[0]!, methods, options: compare.baseline ? { baseline: compare.baseline } : {} }, { signal, onProgress: progress })
+  // the comparison stays the worker's JSON text; only the small fields around it are written here
+  const rest = JSON.stringify({ engineMs: out.engineMs, knots, kind: table.kind, axis: table.axis, status: version.status, lockVersion: version.lockVersion, pointCount: knots.length })
+  const json = `{"result":${out.json},${rest.slice(1)}`
+  return async () => json
+}
