@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # npm test: the same set-up as npm start against a throwaway database, then lint,
-# type-check, unit, API and browser tests. Usage: npm test [-- unit|api|browser|static]
+# type-check, unit, two-node, API and browser tests. Usage: npm test [-- unit|nodes|api|browser|static]
 set -euo pipefail
 cd "$(dirname "$0")/.."
 only="${1:-all}"
@@ -38,8 +38,15 @@ fi
 if [ "$only" = all ] || [ "$only" = unit ]; then
   echo "[test] unit"; npx vitest run --project unit
 fi
-if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ]; then
+if [ "$only" = all ] || [ "$only" = nodes ] || [ "$only" = api ] || [ "$only" = browser ]; then
   echo "[test] building"; npx nuxt build > .data/build-test.log 2>&1 || { tail -40 .data/build-test.log; exit 1; }
+fi
+if [ "$only" = all ] || [ "$only" = nodes ]; then
+  # two app nodes of the built server on the test database, started by the test itself; before the server below
+  # starts, so no third node takes the runs the test follows
+  echo "[test] two nodes"; npx vitest run --project nodes
+fi
+if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ]; then
   port="${port_base:-$(( 3100 + ($$ % 400) ))}"
   export KW_BASE_URL="http://127.0.0.1:$port" NUXT_TRUST_PROXY=1
   export NUXT_PUBLIC_BASE_URL="$KW_BASE_URL"

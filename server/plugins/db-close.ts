@@ -6,6 +6,7 @@ export default defineNitroPlugin((nitro) => {
   nitro.hooks.hook('close', async () => {
     await stopRunner().catch(e => console.error('[runs] stop:', (e as Error).message))
     await closePool()
+    await closeRawPool()
     await closeDb()
   })
 })

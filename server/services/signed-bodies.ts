@@ -2,7 +2,8 @@ import type { H3Event } from 'h3'
 import { QueryTypes, Transaction } from 'sequelize'
 import { isUuid } from '#shared/schemas/route-params'
 import { runTask } from '../lib/work/pool'
-import { pkcs8Of, signedContent, type OrgRef } from './exports'
+import { pkcs8Of, signedContent } from './exports'
+import { READ_REQUESTS_PER_MINUTE, tokenAccess, touchTokenSql, bearerHash, type ReadAccess } from './read-tokens'
 import { activeSigningKey } from './signing-keys'
 import { findTable } from './tables'
 
@@ -11,48 +12,65 @@ import { findTable } from './tables'
 // STAMP is a hash of exactly those, so a stored answer is used only while all of them are as they were when it was signed.
 const STAMP = `md5(concat_ws(chr(31), v.status, t.name, t.kind, t.axis, t.axis_unit, t.value_unit, o.slug, o.name,
   au.name, au.email, fb.name, fb.email, sb.name, sb.email, ab.name, ab.email))`
-const VERSION_ROW = `FROM table_versions v JOIN rate_tables t ON t.id = v.table_id JOIN organisations o ON o.id = v.org_id
+const VERSION_JOINS = `JOIN rate_tables t ON t.id = v.table_id JOIN organisations o ON o.id = v.org_id
   LEFT JOIN users au ON au.id = v.author_id LEFT JOIN users fb ON fb.id = v.filled_by
-  LEFT JOIN users sb ON sb.id = v.submitted_by LEFT JOIN users ab ON ab.id = v.approved_by
-  WHERE v.org_id = $orgId AND v.table_id = $tableId
-    AND CASE WHEN $number::int IS NULL THEN v.status = 'approved' ELSE v.number = $number AND v.status IN ('approved', 'retired') END`
-
-interface Found { id: string, number: number, stamp: string, kid: string | null, tag: string | null, body: string | null }
+  LEFT JOIN users sb ON sb.id = v.submitted_by LEFT JOIN users ab ON ab.id = v.approved_by`
+/** The version in force (number null), or that number if it was ever signed off. */
+const signedOff = (number: string) => `CASE WHEN ${number}::int IS NULL THEN v.status = 'approved' ELSE v.number = ${number} AND v.status IN ('approved', 'retired') END`
 
 /**
- * The signed answer for a table's signed-off version (the one in force, or `number`), as JSON text, and its weak ETag;
- * body null when the caller already holds the tag (If-None-Match: answer 304). One statement finds the version, the
- * stored answer and counts the read for the token (per version and day: reads, or not-modified answers); only the first
- * read of a version (per key and stamp) signs, in a worker thread.
+ * The table route's one statement: checks and counts the token ($1, its hash), finds the version ($2 table, $3 number),
+ * its stored answer under the active key and the current stamp, and counts the read for the token, version and day
+ * (a 304 when the caller holds the tag, $4). Past the rate limit ($5) it finds no version and counts nothing.
  */
-export async function signedOffBody(event: H3Event, org: OrgRef, tableId: string, tokenId: string, options: { number?: number, holds?: string } = {}): Promise<{ tag: string, body: string | null }> {
+const READ_SQL = `
+WITH tok AS (${touchTokenSql('$1')}),
+  v AS (SELECT v.id, v.number, ${STAMP} AS stamp FROM tok JOIN table_versions v ON v.org_id = tok.org_id ${VERSION_JOINS}
+    WHERE tok.window_count <= $5 AND (tok.table_ids IS NULL OR $2 = ANY(tok.table_ids)) AND v.table_id = $2::uuid AND ${signedOff('$3')}),
+  b AS (SELECT v.id, v.number, v.stamp, k.kid, s.tag, s.body FROM v
+    LEFT JOIN org_signing_keys k ON k.org_id = (SELECT org_id FROM tok) AND k.status = 'active'
+    LEFT JOIN signed_bodies s ON s.version_id = v.id AND s.key_id = k.kid AND s.stamp = v.stamp),
+  used AS (INSERT INTO read_token_usage AS u (token_id, version_id, day, reads, not_modified)
+    SELECT (SELECT id FROM tok), b.id, current_date, CASE WHEN b.tag = ANY($4::text[]) THEN 0 ELSE 1 END, CASE WHEN b.tag = ANY($4::text[]) THEN 1 ELSE 0 END FROM b
+    ON CONFLICT (token_id, version_id, day) DO UPDATE SET reads = u.reads + excluded.reads, not_modified = u.not_modified + excluded.not_modified, last_at = now())
+SELECT tok.*, b.id AS version_id, b.number, b.tag, CASE WHEN b.tag = ANY($4::text[]) THEN NULL ELSE b.body END AS body FROM tok LEFT JOIN b ON true`
+
+type Row = Record<string, unknown>
+
+/**
+ * The signed answer for a table's signed-off version (the one in force, or `number`) as JSON text, with its weak ETag;
+ * body null when the caller already holds the tag (If-None-Match: answer 304). One statement on the hot path (token,
+ * rate limit, version, stored answer, use count); only the first read of a version under a key and stamp signs, in a
+ * worker thread. 401 / 429 as requireReadToken; 404 for a table outside the token's limit, another organisation's or
+ * one without a signed-off version.
+ */
+export async function readSignedTable(event: H3Event, tableId: string, options: { number?: number, holds?: string } = {}): Promise<{ access: ReadAccess, tag: string, body: string | null }> {
   const held = (options.holds ?? '').split(',').map(t => t.trim()).filter(Boolean)
-  if (!isUuid(tableId)) notFound('table')
-  const [found] = await useDb().query<Found>(`
-    WITH v AS (SELECT v.id, v.number, ${STAMP} AS stamp ${VERSION_ROW}),
-      b AS (SELECT v.id, v.number, v.stamp, k.kid, s.tag, s.body FROM v
-        LEFT JOIN org_signing_keys k ON k.org_id = $orgId AND k.status = 'active'
-        LEFT JOIN signed_bodies s ON s.version_id = v.id AND s.key_id = k.kid AND s.stamp = v.stamp),
-      used AS (INSERT INTO read_token_usage AS u (token_id, version_id, day, reads, not_modified)
-        SELECT $tokenId, b.id, current_date, CASE WHEN b.tag = ANY($held::text[]) THEN 0 ELSE 1 END, CASE WHEN b.tag = ANY($held::text[]) THEN 1 ELSE 0 END FROM b
-        ON CONFLICT (token_id, version_id, day) DO UPDATE SET reads = u.reads + excluded.reads, not_modified = u.not_modified + excluded.not_modified, last_at = now())
-    SELECT id, number, stamp, kid, tag, CASE WHEN tag = ANY($held::text[]) THEN NULL ELSE body END AS body FROM b`,
-  { bind: { orgId: org.id, tableId, number: options.number ?? null, tokenId, held }, type: QueryTypes.SELECT })
-  if (!found) {
-    await findTable(org.id, tableId) // 404 "no such table" first, as the table route always answered
+  const hash = bearerHash(event)
+  const table = isUuid(tableId) ? tableId.toLowerCase() : null
+  const { rows } = hash
+    ? await useRawPool().query<Row>({ name: 'kw-read-signed-table', text: READ_SQL, values: [hash, table, options.number ?? null, held, READ_REQUESTS_PER_MINUTE] })
+    : { rows: [] as Row[] }
+  const access = tokenAccess(event, rows[0])
+  const row = rows[0]!
+  if (!table || (access.tableIds && !access.tableIds.includes(table))) notFound('table') // outside the token's tables: as if absent
+  if (!row.version_id) {
+    await findTable(access.org.id, table) // "no such table" first, as the route always answered
     notFound(options.number === undefined ? 'signed-off version' : `signed-off version ${options.number}`)
   }
-  if (found.tag && (found.body !== null || held.includes(found.tag))) return { tag: found.tag, body: found.body }
-  const made = await produceBody(event, org, tableId, found.number)
-  return { tag: made.tag, body: held.includes(made.tag) ? null : made.body }
+  const tag = row.tag as string | null
+  if (tag && (row.body !== null || held.includes(tag))) return { access, tag, body: row.body as string | null }
+  const made = await produceBody(event, access.org, table, row.number as number)
+  return { access, tag: made.tag, body: held.includes(made.tag) ? null : made.body }
 }
 
 /** Signs a version's answer once: content and stamp read in one snapshot; of two nodes signing at once, the first stored wins. */
-async function produceBody(event: H3Event, org: OrgRef, tableId: string, number: number): Promise<{ tag: string, body: string }> {
+async function produceBody(event: H3Event, org: ReadAccess['org'], tableId: string, number: number): Promise<{ tag: string, body: string }> {
   const key = await activeSigningKey(event, org.id)
   const db = useDb()
   const { content, stamp, versionId } = await db.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true }, async (t) => {
-    const [row] = await db.query<{ id: string, stamp: string }>(`SELECT v.id, ${STAMP} AS stamp ${VERSION_ROW}`, { bind: { orgId: org.id, tableId, number }, type: QueryTypes.SELECT, transaction: t })
+    const [row] = await db.query<{ id: string, stamp: string }>(`SELECT v.id, ${STAMP} AS stamp FROM table_versions v ${VERSION_JOINS}
+      WHERE v.org_id = $orgId AND v.table_id = $tableId AND ${signedOff('$number')}`, { bind: { orgId: org.id, tableId, number }, type: QueryTypes.SELECT, transaction: t })
     if (!row) notFound(`signed-off version ${number}`)
     return { content: await signedContent(org, tableId, number, key.kid, t), stamp: row.stamp, versionId: row.id }
   })

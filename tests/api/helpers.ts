@@ -23,11 +23,12 @@ export interface Reply<T = unknown> { status: number; body: T; headers: Headers 
 /** A person's browser: keeps the session cookie between requests. */
 export class Client {
   cookie = ''
-  constructor(readonly address = nextAddress()) {}
+  /** the app node this browser talks to (two-node tests switch it; the cookie goes along) */
+  constructor(readonly address = nextAddress(), public base = BASE) {}
 
   async req<T = unknown>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply<T>> {
     const isRaw = body instanceof Uint8Array || body instanceof FormData || typeof body === 'string'
-    const res = await fetch(BASE + path, {
+    const res = await fetch(this.base + path, {
       method,
       headers: {
         ...(body !== undefined && !isRaw ? { 'content-type': 'application/json' } : {}),
@@ -62,8 +63,8 @@ export class Client {
   }
 }
 
-export async function signedIn(email: string, password = DEMO_PASSWORD) {
-  return new Client().login(email, password)
+export async function signedIn(email: string, password = DEMO_PASSWORD, base = BASE) {
+  return new Client(undefined, base).login(email, password)
 }
 
 export function uniqueEmail(prefix = 'person') {
@@ -71,8 +72,8 @@ export function uniqueEmail(prefix = 'person') {
 }
 
 /** A new organisation with its admin signed in (sign-up). */
-export async function freshOrg(name = `Test Org ${randomBytes(3).toString('hex')}`) {
-  const client = new Client()
+export async function freshOrg(name = `Test Org ${randomBytes(3).toString('hex')}`, base = BASE) {
+  const client = new Client(undefined, base)
   const email = uniqueEmail('admin')
   const password = 'correct horse battery staple'
   const r = await client.post<{ memberships: { org: { slug: string; id: string } }[] }>('/api/auth/signup', { name: 'Test Admin', email, password, organisation: name })
