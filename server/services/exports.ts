@@ -10,6 +10,8 @@ import type { ExportVerdictDto } from '#shared/types/exports'
 import type { ReadTableSummaryDto } from '#shared/types/read-tokens'
 import { activeSigningKey, publicKeysOf } from './signing-keys'
 import { findVersion } from './tables'
+import { HEAVY_EXPORT_VALUES, newRunKey, startRun } from './work/start'
+import type { ExportRunInput } from './work/kinds/export'
 import { readPoints, type PointTable } from './points-store'
 
 type Row = Record<string, unknown>
@@ -59,15 +61,30 @@ export async function signedContent(org: OrgRef, tableId: string, number: number
   }
 }
 
-/** The signed workbook, signed and written in a worker thread (stopped if the client goes away: `signal`). */
-export async function exportSignedVersion(event: H3Event, access: OrgAccess, tableId: string, number: number, signal?: AbortSignal): Promise<{ fileName: string; data: Buffer }> {
-  const key = await activeSigningKey(event, access.org.id)
-  const content = await signedContent(access.org, tableId, number, key.kid)
+export const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'
+
+/**
+ * Starts the signed workbook of a signed-off version as a run (versions with many fill values through the queue), after
+ * the checks a request answers at once: 404, 409 for a version never signed off, and the organisation's key made if it
+ * has none yet (so the run itself only reads keys).
+ */
+export async function startExport(event: H3Event, access: OrgAccess, tableId: string, number: number, runKey: string = newRunKey()): Promise<{ id: string, runKey: string }> {
+  const version = await findVersion(access.org.id, tableId, number)
+  if (version.status !== 'approved' && version.status !== 'retired') throw apiError(409, 'not-signed-off', 'Only a signed-off version can be exported with a signature.')
+  await activeSigningKey(event, access.org.id)
+  const [values] = await useDb().query<{ n: number }>('SELECT count(*)::int AS n FROM version_fill_points WHERE version_id = :id', { replacements: { id: version.id }, type: QueryTypes.SELECT })
+  const input: ExportRunInput = { tableId, number, origin: { requestId: event.context.requestId ?? null, ip: clientAddress(event) } }
+  return startRun(access, { kind: 'export', runKey, heavy: values!.n > HEAVY_EXPORT_VALUES, input: input as never, total: 1 })
+}
+
+/** The signed workbook, signed and written in a worker thread (stopped when `signal` aborts); the caller audits it. */
+export async function buildSignedExport(org: OrgRef, tableId: string, number: number, signal?: AbortSignal): Promise<{ fileName: string, data: Buffer, content: SignedContent }> {
+  const key = await activeSigningKey(null, org.id)
+  const content = await signedContent(org, tableId, number, key.kid)
   const built = await runTask('buildExport', { content, pkcs8: pkcs8Of(key.privateKey), x: key.x }, { signal })
   const data = Buffer.from(built.data.buffer, built.data.byteOffset, built.data.byteLength)
-  await audit(event, { orgId: access.org.id, action: 'export.download', objectType: 'table_version', objectId: content.version.id, detail: { tableId, number, keyId: key.kid, bytes: data.length, signedAt: content.signedAt } })
   const safe = content.table.name.replace(/[^A-Za-z0-9 ._-]+/g, '').trim().replace(/\s+/g, '-').slice(0, 80) || 'table'
-  return { fileName: `${safe}-v${number}-signed.xlsx`, data }
+  return { fileName: `${safe}-v${number}-signed.xlsx`, data, content }
 }
 
 /** Checks an uploaded workbook (read and checked in a worker thread): signature, every cell, and where the version stands now. */

@@ -23,8 +23,8 @@ async function createKey(orgId: string, t: Transaction): Promise<{ kid: string; 
   return { kid, x }
 }
 
-/** The active key (created now when the organisation has none), with its private key opened. */
-export async function activeSigningKey(event: H3Event, orgId: string): Promise<{ kid: string; x: string; privateKey: KeyObject }> {
+/** The active key (created now when the organisation has none), with its private key opened. `event`: who asked, for the audit trail. */
+export async function activeSigningKey(event: H3Event | null, orgId: string): Promise<{ kid: string; x: string; privateKey: KeyObject }> {
   const key = await inTransaction(async (t) => {
     await useDb().query('SELECT pg_advisory_xact_lock(hashtext(:k))', { replacements: { k: `signing-key:${orgId}` }, transaction: t })
     const [row] = await useDb().query<{ kid: string; public_x: string; private_sealed: string }>(

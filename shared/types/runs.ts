@@ -1,6 +1,6 @@
-// A long run (a comparison, reading an upload) as any app node reports it: kept in PostgreSQL while it runs and for an
+// A long run (a comparison, reading an upload, a signed export) as any app node reports it: kept in PostgreSQL while it runs and for an
 // hour after it ends. `id` is the run id the page chose (or the server, when the page gave none).
-export type RunKind = 'compare' | 'import-read'
+export type RunKind = 'compare' | 'import-read' | 'export'
 export type RunStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled'
 
 export interface RunDto {

@@ -5,13 +5,14 @@ import { randomBytes } from 'node:crypto'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { CompareResponseDto } from '#shared/types/fills'
 import type { RunDto } from '#shared/types/runs'
-import { Client, DEMO, LARKSPUR, closeOwnerDb, freshOrg, ownerDb, signedIn } from '../api/helpers'
+import { Client, DEMO, FENWICK, LARKSPUR, closeOwnerDb, freshOrg, ownerDb, signedIn } from '../api/helpers'
 import { QUICK_TAKEOVER, startNode, stopNode, type AppNode } from '~~/scripts/app-nodes'
 
 let a: AppNode
 let b: AppNode
 beforeAll(async () => {
-  const env = { ...QUICK_TAKEOVER, KW_WORKER_THREADS: '2' }
+  // two worker threads: each node takes one heavy run at a time; one heavy run per organisation over both nodes
+  const env = { ...QUICK_TAKEOVER, KW_WORKER_THREADS: '2', KW_ORG_RUN_LIMIT: '1' }
   ;[a, b] = await Promise.all([startNode('A', env), startNode('B', env)])
 })
 afterAll(async () => {
@@ -22,11 +23,11 @@ afterAll(async () => {
 const sleep = (ms: number) => new Promise(resolve => setTimeout(resolve, ms))
 const on = (client: Client, node: AppNode) => { client.base = node.url; return client }
 
-async function benchVersion(): Promise<string> {
+async function benchVersion(slug = LARKSPUR, name = 'Pensioner mortality, male'): Promise<string> {
   const [rows] = await ownerDb().query(`SELECT t.id, max(v.number) AS number FROM rate_tables t JOIN organisations o ON o.id = t.org_id JOIN table_versions v ON v.table_id = t.id
-    WHERE o.slug = :slug AND t.name = 'Pensioner mortality, male' GROUP BY t.id`, { replacements: { slug: LARKSPUR } })
+    WHERE o.slug = :slug AND t.name = :name GROUP BY t.id`, { replacements: { slug, name } })
   const { id, number } = (rows as { id: string, number: number }[])[0]!
-  return `/api/orgs/${LARKSPUR}/tables/${id}/versions/${number}`
+  return `/api/orgs/${slug}/tables/${id}/versions/${number}`
 }
 
 /** Follows a run on one node until it ends; every state seen on the way. */
@@ -80,6 +81,32 @@ describe('two app nodes on one PostgreSQL', () => {
     // nobody else follows it, on either node
     const other = await signedIn(DEMO.analyst, undefined, a.url)
     expect((await other.get(`/api/orgs/${LARKSPUR}/runs/${runId}`)).status).toBe(404)
+  })
+
+  it('one organisation\'s heavy runs wait for each other, not for another organisation\'s', async () => {
+    const tomas = await signedIn(DEMO.actuary, undefined, a.url)
+    const felix = await signedIn(DEMO.both, undefined, b.url)
+    // heavy (through the queue): 5,501 points x 3 methods on ln q
+    const heavy = { grid: { from: '55', to: '110', step: '0.01' }, transform: 'log', methods: [{ method: 'cubic-natural' }, { method: 'pchip' }, { method: 'akima' }] }
+    const key = (name: string) => `${name}-${randomBytes(6).toString('hex')}`
+    const runs = { l1: key('larkspur-1'), l2: key('larkspur-2'), f1: key('fenwick-1') }
+    for (const runId of [runs.l1, runs.l2]) expect((await tomas.post(`${await benchVersion()}/compare`, { ...heavy, runId }, { prefer: 'respond-async' })).status).toBe(202)
+    expect((await felix.post(`${await benchVersion(FENWICK, 'Client scheme mortality, unisex')}/compare`, { ...heavy, runId: runs.f1 }, { prefer: 'respond-async' })).status).toBe(202)
+    type Seen = { run_key: string, status: string, started_at: Date | null }
+    let rows: Seen[] = []
+    let bothLarkspur = false
+    for (const end = Date.now() + 240_000; Date.now() < end;) {
+      ;[rows] = await ownerDb().query('SELECT run_key, status, started_at FROM work_runs WHERE run_key IN (:keys)', { replacements: { keys: Object.values(runs) } }) as [Seen[], unknown]
+      const status = (k: string) => rows.find(r => r.run_key === k)?.status
+      bothLarkspur ||= status(runs.l1) === 'running' && status(runs.l2) === 'running'
+      if (rows.every(r => r.status === 'done')) break
+      await sleep(100)
+    }
+    expect(rows.map(r => r.status)).toEqual(['done', 'done', 'done'])
+    expect(bothLarkspur).toBe(false)
+    // Larkspur's second run was queued before Fenwick & Rowe's, yet Fenwick & Rowe's started first: a free node skipped it
+    const started = (k: string) => new Date(rows.find(r => r.run_key === k)!.started_at!).getTime()
+    expect(started(runs.f1)).toBeLessThan(Math.max(started(runs.l1), started(runs.l2)))
   })
 
   it('the read API\'s rate limit is counted once for both nodes', async () => {

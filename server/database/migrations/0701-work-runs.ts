@@ -1,7 +1,7 @@
 import type { MigrationFn } from 'umzug'
 import type { QueryInterface } from 'sequelize'
 
-// Long and heavy work (comparisons, reading uploads) as runs kept in PostgreSQL, so any app node can answer how far a run
+// Long and heavy work (comparisons, reading uploads, signed exports) as runs kept in PostgreSQL, so any app node can answer how far a run
 // is and what it found, and a run whose node died is taken over by another (server/services/work/). The queue itself is
 // pg-boss's (schema pgboss, installed by scripts/migrate.ts); this table is the truth about each run.
 export const up: MigrationFn<QueryInterface> = async ({ context: q }) => {
@@ -11,7 +11,7 @@ export const up: MigrationFn<QueryInterface> = async ({ context: q }) => {
       org_id uuid NOT NULL REFERENCES organisations(id) ON DELETE CASCADE,
       user_id uuid NOT NULL REFERENCES users(id) ON DELETE CASCADE,
       run_key text NOT NULL CHECK (length(run_key) BETWEEN 8 AND 64),
-      kind text NOT NULL CHECK (kind IN ('compare', 'import-read')),
+      kind text NOT NULL CHECK (kind IN ('compare', 'import-read', 'export')),
       -- heavy runs go through the queue and count against the organisation's limit; light ones run where they arrive
       heavy boolean NOT NULL,
       status text NOT NULL CHECK (status IN ('queued', 'running', 'done', 'failed', 'cancelled')),
@@ -19,7 +19,9 @@ export const up: MigrationFn<QueryInterface> = async ({ context: q }) => {
       input_bytes bytea,
       done integer NOT NULL DEFAULT 0,
       total integer NOT NULL DEFAULT 0,
+      -- the answer: JSON text, and for a file (a signed workbook) its bytes, with {"file": {"name", "type"}} in result
       result text,
+      result_bytes bytea,
       error jsonb,
       attempts integer NOT NULL DEFAULT 0,
       node text,

@@ -29,7 +29,7 @@ export function awaitRun(id: string): Promise<RunStatus> {
  * node: GET .../runs/<id>, then .../runs/<id>/result). Otherwise the request waits for the run and answers its result
  * (`okStatus`) or its refusal; if the connection closes first, the run is cancelled, wherever it runs.
  */
-export async function answerRun(event: H3Event, access: OrgAccess, run: { id: string, runKey: string }, okStatus = 200): Promise<string | RunDto> {
+export async function answerRun(event: H3Event, access: OrgAccess, run: { id: string, runKey: string }, okStatus = 200): Promise<string | Buffer | RunDto> {
   if (/\brespond-async\b/i.test(getRequestHeader(event, 'prefer') ?? '')) {
     setResponseStatus(event, 202)
     setResponseHeader(event, 'location', `/api/orgs/${access.org.slug}/runs/${run.runKey}`)
@@ -43,13 +43,18 @@ export async function answerRun(event: H3Event, access: OrgAccess, run: { id: st
   return sendOutcome(event, run.id, okStatus)
 }
 
-/** A finished run's stored answer as it is (JSON text, never parsed here), or the refusal it ended with. */
-export async function sendOutcome(event: H3Event, id: string, okStatus = 200): Promise<string> {
+/** A finished run's stored answer as it is (JSON text, never parsed here; or a file), or the refusal it ended with. */
+export async function sendOutcome(event: H3Event, id: string, okStatus = 200): Promise<string | Buffer> {
   const outcome = await runOutcome(id)
   if (outcome.status === 'failed') throwRunError(outcome.error)
   if (outcome.status === 'cancelled') throw apiError(409, 'cancelled', 'The run was cancelled; it has no result.')
   if (outcome.status !== 'done' || outcome.result === null) throw apiError(409, 'run-unfinished', 'The run has not finished yet; ask again shortly.', { status: outcome.status })
   setResponseStatus(event, okStatus)
+  if (outcome.result_bytes) {
+    const { file } = JSON.parse(outcome.result) as { file: { name: string, type: string } }
+    setResponseHeaders(event, { 'content-type': file.type, 'content-disposition': `attachment; filename="${file.name}"`, 'cache-control': 'no-store' })
+    return outcome.result_bytes
+  }
   setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
   return outcome.result
 }

@@ -27,7 +27,9 @@ export async function executeRun(run: ClaimedRun): Promise<void> {
   try {
     const commit = await RUN_KINDS[run.kind]({ run, signal: entry.controller.signal, progress: (done, total) => { void reportProgress(run, done, total).catch(() => {}) } })
     await inTransaction(async (t) => {
-      if (!(await endRun(run, { status: 'done', result: await commit(t) }, t))) throw new RunLost()
+      const answer = await commit(t)
+      const end = typeof answer === 'string' ? { status: 'done' as const, result: answer } : { status: 'done' as const, ...answer }
+      if (!(await endRun(run, end, t))) throw new RunLost()
     })
   }
   catch (error) {

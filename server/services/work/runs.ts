@@ -79,13 +79,15 @@ export async function runBytes(run: ClaimedRun): Promise<Buffer> {
  * Ends a run this node still holds; false when it no longer does (then nothing is written, and a caller that passed its
  * transaction must roll it back: the effects of a run and its end commit together or not at all).
  */
-export async function endRun(run: ClaimedRun, end: { status: 'done', result: string } | { status: 'failed', error: RunError } | { status: 'cancelled' }, t?: Transaction): Promise<boolean> {
+export type RunEnd = { status: 'done', result: string, bytes?: Buffer } | { status: 'failed', error: RunError } | { status: 'cancelled' }
+
+export async function endRun(run: ClaimedRun, end: RunEnd, t?: Transaction): Promise<boolean> {
   // the result can be tens of MB of JSON text: a bind parameter, sent as it is
   const rows = await useDb().query(
-    `UPDATE work_runs SET status = $status, result = $result, error = $error::jsonb, done = CASE WHEN $status = 'done' THEN total ELSE done END,
+    `UPDATE work_runs SET status = $status, result = $result, result_bytes = $bytes, error = $error::jsonb, done = CASE WHEN $status = 'done' THEN total ELSE done END,
        finished_at = now(), input_bytes = NULL
      WHERE id = $id AND node = $node AND attempts = $attempt AND status = 'running' RETURNING id`,
-    { bind: { id: run.id, node: WORK.nodeId, attempt: run.attempt, status: end.status, result: end.status === 'done' ? end.result : null, error: end.status === 'failed' ? JSON.stringify(end.error) : null }, type: QueryTypes.SELECT, transaction: t })
+    { bind: { id: run.id, node: WORK.nodeId, attempt: run.attempt, status: end.status, result: end.status === 'done' ? end.result : null, bytes: end.status === 'done' ? end.bytes ?? null : null, error: end.status === 'failed' ? JSON.stringify(end.error) : null }, type: QueryTypes.SELECT, transaction: t })
   if (!rows.length) return false
   await notifyRun(run.id, end.status, t)
   return true
@@ -127,9 +129,17 @@ export async function runStatusById(id: string): Promise<RunStatus | null> {
   return row?.status ?? null
 }
 
-/** The stored answer of a finished run (JSON text), with its error when it failed. */
-export async function runOutcome(id: string): Promise<{ status: RunStatus, result: string | null, error: RunError | null }> {
-  const [row] = await useDb().query<{ status: RunStatus, result: string | null, error: RunError | null }>('SELECT status, result, error FROM work_runs WHERE id = :id', { replacements: { id }, type: QueryTypes.SELECT })
+export interface RunOutcome { status: RunStatus, result: string | null, result_bytes: Buffer | null, error: RunError | null }
+
+/** The stored answer of a finished run (JSON text, and the file's bytes for an export), with its error when it failed. */
+export async function runOutcome(id: string): Promise<RunOutcome> {
+  const [row] = await useDb().query<RunOutcome>('SELECT status, result, result_bytes, error FROM work_runs WHERE id = :id', { replacements: { id }, type: QueryTypes.SELECT })
   if (!row) notFound('run')
   return row
+}
+
+/** The person who started a run, as an audit event names its actor. */
+export async function runActor(run: ClaimedRun, t?: Transaction): Promise<{ id: string, email: string }> {
+  const [row] = await useDb().query<{ email: string }>('SELECT email FROM users WHERE id = :id', { replacements: { id: run.userId }, type: QueryTypes.SELECT, transaction: t })
+  return { id: run.userId, email: row!.email }
 }

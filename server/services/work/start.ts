@@ -19,3 +19,6 @@ export const HEAVY_WORK = Number(process.env.KW_HEAVY_RUN_WORK) > 0 ? Number(pro
 
 /** Uploads above this size are read through the queue (any node); smaller ones where they arrive. */
 export const HEAVY_UPLOAD_BYTES = Number(process.env.KW_HEAVY_UPLOAD_BYTES) > 0 ? Number(process.env.KW_HEAVY_UPLOAD_BYTES) : 2 * 1024 * 1024
+
+/** Signed exports of versions with more fill values than this are built through the queue. */
+export const HEAVY_EXPORT_VALUES = 20_000

@@ -2,7 +2,7 @@ import { QueryTypes } from 'sequelize'
 import type { ImportDto, ImportSheetSummary } from '#shared/types/tables'
 import { IMPORT_LIMITS } from '~~/server/lib/import/limits'
 import { runTask } from '~~/server/lib/work/pool'
-import { runBytes } from '../runs'
+import { runActor, runBytes } from '../runs'
 import type { RunExecutor } from './index'
 
 export interface ImportReadInput { fileName: string, origin: { requestId: string | null, ip: string | null } }
@@ -22,8 +22,7 @@ export const executeImportRead: RunExecutor = async ({ run, signal }) => {
        VALUES ($orgId, $ownerId, $fileName, $kind, $size, $sheets::jsonb, $summary::jsonb, now() + make_interval(hours => $hours))
        RETURNING id, created_at, expires_at`,
       { bind: { orgId: run.orgId, ownerId: run.userId, fileName, kind: parsed.kind, size: data.length, sheets: parsed.sheetsJson, summary: JSON.stringify(parsed.sheets), hours: IMPORT_LIMITS.keepHours }, type: QueryTypes.SELECT, transaction: t })
-    const [owner] = await useDb().query<{ email: string }>('SELECT email FROM users WHERE id = :id', { replacements: { id: run.userId }, type: QueryTypes.SELECT, transaction: t })
-    await audit(null, { orgId: run.orgId, actor: { id: run.userId, email: owner!.email }, origin, action: 'import.upload', objectType: 'import', objectId: row!.id,
+    await audit(null, { orgId: run.orgId, actor: await runActor(run, t), origin, action: 'import.upload', objectType: 'import', objectId: row!.id,
       detail: { fileName, kind: parsed.kind, sizeBytes: data.length, sheets: parsed.sheets.map(s => ({ name: s.name, rows: s.rowCount })) } }, t)
     const dto: ImportDto = importDto({ id: row!.id, file_name: fileName, file_kind: parsed.kind, size_bytes: data.length, sheet_summary: parsed.sheets, created_at: row!.created_at, expires_at: row!.expires_at })
     return JSON.stringify(dto)
