@@ -11,9 +11,9 @@ export default defineConfig({
   test: {
     projects: [
       { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', testTimeout: 60_000 } },
-      { extends: true, test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 60_000, hookTimeout: 60_000, fileParallelism: false } },
+      { extends: true, test: { name: 'api', include: ['tests/api/**/*.test.ts'], setupFiles: ['tests/api/setup.ts'], environment: 'node', testTimeout: 60_000, hookTimeout: 60_000, fileParallelism: false } },
       // two app nodes of the built server started by the test itself (scripts/test.sh runs it before its own server starts)
-      { extends: true, test: { name: 'nodes', include: ['tests/nodes/**/*.test.ts'], environment: 'node', testTimeout: 300_000, hookTimeout: 120_000, fileParallelism: false } },
+      { extends: true, test: { name: 'nodes', include: ['tests/nodes/**/*.test.ts'], setupFiles: ['tests/api/setup.ts'], environment: 'node', testTimeout: 300_000, hookTimeout: 120_000, fileParallelism: false } },
     ],
   },
 })

@@ -1,6 +1,5 @@
-import {
-  DEFAULT_PRECISION, GUARD_DIGITS, MAX_PRECISION, MIN_PRECISION, decimalContext, quote, roundTo, type Dec, type DecimalCtor,
-} from './decimal'
+import { quote, roundTo, type Dec, type DecimalCtor } from './decimal'
+import { fitClosure, isClosure, resolveClosureOptions, type ClosureLaw } from './closure'
 import { EngineError } from './errors'
 import { assertInside, evaluateAny, evaluateAscending, type UniformGrid } from './evaluate'
 import { resolvePoints, type ResolvedPoints } from './grid'
@@ -8,13 +7,12 @@ import { parseKnots, type ParsedKnots } from './knots'
 import type { MethodDefinition } from './methods/method'
 import { resolveMoneyOptions } from './money-options'
 import type { PiecewisePolynomial } from './piecewise'
+import { resolvePrecision, workingContext, workingPrecision } from './precision'
 import { methodDefinition, resolveOptions } from './registry'
 import { TRANSFORMS, spotRateAtZero, type TransformDefinition } from './transforms'
-import type { ExtrapolationRule, FillRequest, Knot, ResolvedSpec, TableKind, TransformId } from './types'
+import { EXTRAPOLATION_KINDS, EXTRAPOLATION_RULES, TABLE_KINDS, type ExtrapolationRule, type FillRequest, type Knot, type ResolvedSpec, type TableKind, type TransformId } from './types'
 import { ENGINE_VERSION } from './version'
 
-const KINDS: TableKind[] = ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other']
-const RULES: ExtrapolationRule[] = ['error', 'flat', 'linear']
 
 /** A fitted request: what the evaluator, the diagnostics and the money view share. */
 export interface FittedRequest {
@@ -27,6 +25,8 @@ export interface FittedRequest {
   pp: PiecewisePolynomial
   points: ResolvedPoints
   notes: string[]
+  /** The old-age closure law (extrapolation gompertz or kannisto), fitted to the given q_x; null for other rules. */
+  closure: ClosureLaw | null
 }
 
 export interface CoreFill extends FittedRequest {
@@ -41,27 +41,25 @@ function pick<T extends string>(value: unknown, allowed: readonly T[], fallback:
   throw new EngineError('invalid-request', `Unknown ${what} ${quote(value)}; choose one of ${allowed.join(', ')}.`)
 }
 
-function resolvePrecision(value: unknown): number {
-  if (value === undefined || value === null) return DEFAULT_PRECISION
-  if (typeof value !== 'number' || !Number.isInteger(value) || value < MIN_PRECISION || value > MAX_PRECISION) {
-    throw new EngineError('invalid-request', `Precision must be a whole number of significant digits from ${MIN_PRECISION} to ${MAX_PRECISION}; got ${quote(value)}.`)
-  }
-  return value
-}
-
 const NO_POINTS: ResolvedPoints = { xs: [], grid: null, at: [], ascending: true, noun: 'Point', uniform: null }
 
-/** Resolve, validate and fit: everything up to, not including, evaluation at the output points. */
-export function fitRequest(request: FillRequest, withPoints = true): FittedRequest {
+/**
+ * Resolve, validate and fit: everything up to, not including, evaluation at the output points. `points`: the output
+ * points already resolved for this request's precision (compare resolves them once for every method), or null for a refit
+ * without points (a check that evaluates where it needs); by default they are resolved here.
+ */
+export function fitRequest(request: FillRequest, points?: ResolvedPoints | null): FittedRequest {
   if (typeof request !== 'object' || request === null) throw new EngineError('invalid-request', 'The request must be an object.')
   const def = methodDefinition(request.method)
-  const options = resolveOptions(def, request.options)
-  const transformId = pick<TransformId>(request.transform, Object.keys(TRANSFORMS) as TransformId[], 'none', 'transform')
-  const extrapolation = pick(request.extrapolation, RULES, 'error', 'extrapolation rule')
-  const kind = pick(request.kind, KINDS, 'other', 'kind')
   const precision = resolvePrecision(request.precision)
-  const workingPrecision = precision + GUARD_DIGITS
-  const D = decimalContext(workingPrecision)
+  const D = workingContext(precision)
+  const options = resolveOptions(def, request.options, D)
+  const transformId = pick<TransformId>(request.transform, Object.keys(TRANSFORMS) as TransformId[], 'none', 'transform')
+  const extrapolation = pick<ExtrapolationRule>(request.extrapolation, EXTRAPOLATION_RULES, 'error', 'extrapolation rule')
+  const kind = pick<TableKind>(request.kind, TABLE_KINDS, 'other', 'kind')
+  if (!EXTRAPOLATION_KINDS[extrapolation].includes(kind)) {
+    throw new EngineError('invalid-request', `Extrapolation '${extrapolation}' applies to ${EXTRAPOLATION_KINDS[extrapolation].join(', ')} tables; this table's kind is '${kind}'.`)
+  }
   const money = resolveMoneyOptions(D, request.money)
   if (def.scale === 'log' && transformId !== 'none') {
     throw new EngineError('invalid-request', `Method ${def.id} already interpolates ln y; use transform 'none' with it, or method linear with transform 'log'.`)
@@ -71,8 +69,8 @@ export function fitRequest(request: FillRequest, withPoints = true): FittedReque
   if (knots.x.length < def.minPoints) {
     throw new EngineError('too-few-points', `Method ${def.id} needs at least ${def.minPoints} points; ${knots.x.length} ${knots.x.length === 1 ? 'was' : 'were'} given.`)
   }
-  // without points (a refit for a check): the caller evaluates where it needs, and the kept grid resolution stays
-  const points = withPoints ? resolvePoints(D, request.grid, request.at) : NO_POINTS
+  const output = points === undefined ? resolvePoints(D, request.grid, request.at) : points ?? NO_POINTS
+  const { closure, extrapolationOptions } = resolveClosure(request, extrapolation, kind, knots, D)
   const notes: string[] = []
   let x = knots.x
   const y = knots.y.map((value, i) => {
@@ -95,16 +93,29 @@ export function fitRequest(request: FillRequest, withPoints = true): FittedReque
     options,
     transform: transformId,
     extrapolation,
-    grid: points.grid,
-    at: points.at,
+    extrapolationOptions,
+    grid: output.grid,
+    at: output.at,
     precision,
-    workingPrecision,
+    workingPrecision: workingPrecision(precision),
     rounding: 'half-even',
     kind,
     money,
     knotCount: knots.x.length,
   }
-  return { spec, D, def, transform, knots, pp, points, notes }
+  return { spec, D, def, transform, knots, pp, points: output, notes, closure }
+}
+
+/** The closure law of a gompertz / kannisto request (mortality only), fitted to the given knots; options for no other rule. */
+function resolveClosure(request: FillRequest, rule: ExtrapolationRule, kind: TableKind, knots: ParsedKnots, D: DecimalCtor): { closure: ClosureLaw | null, extrapolationOptions: Record<string, string> | null } {
+  if (!isClosure(rule)) {
+    if (request.extrapolationOptions && Object.keys(request.extrapolationOptions).length) {
+      throw new EngineError('invalid-option', `extrapolationOptions apply to the closure rules gompertz and kannisto; extrapolation '${rule}' takes none.`)
+    }
+    return { closure: null, extrapolationOptions: null }
+  }
+  const options = resolveClosureOptions(D, request.extrapolationOptions, knots.x[knots.x.length - 1]!)
+  return { closure: fitClosure(rule, knots.x, knots.y, options, D), extrapolationOptions: options }
 }
 
 /**
@@ -118,12 +129,14 @@ export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = fal
   // with one, to the working precision, and the inverse transform's result to the stated precision
   const digits = transform.id === 'none' ? P : spec.workingPrecision
   const raw = ascending ? evaluateAscending(pp, xs, spec.extrapolation, digits, uniform) : evaluateAny(pp, xs, spec.extrapolation, digits)
+  if (fitted.closure) closeAbove(fitted.closure, xs, raw, P)
   if (transform.id === 'none') return raw
   const out: Dec[] = new Array<Dec>(xs.length)
   let atZero: Dec | null = null
   for (let k = 0; k < xs.length; k += 1) {
     const x = xs[k]!
-    if (transform.id === 'log-discount' && x.isZero()) {
+    if (fitted.closure && x.gt(fitted.closure.from)) out[k] = raw[k]!
+    else if (transform.id === 'log-discount' && x.isZero()) {
       atZero ??= logDiscountAtZero(fitted)
       out[k] = roundTo(atZero, P)
     }
@@ -132,6 +145,11 @@ export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = fal
     }
   }
   return out
+}
+
+/** Above the last given age the closure law's q (on the q scale, not the method's), rounded to the stated precision. */
+function closeAbove(closure: ClosureLaw, xs: Dec[], values: Dec[], P: number): void {
+  for (let k = 0; k < xs.length; k += 1) if (xs[k]!.gt(closure.from)) values[k] = roundTo(closure.q(xs[k]!), P)
 }
 
 /** r(0) under log-discount: the given rate if a knot sits at t = 0, else the limit from the slope of ln P at 0. */
@@ -143,8 +161,8 @@ function logDiscountAtZero(fitted: FittedRequest): Dec {
 }
 
 /** Fit and evaluate at the output points: the hot path (no diagnostics, no money). */
-export function fillCore(request: FillRequest): CoreFill {
-  const fitted = fitRequest(request)
+export function fillCore(request: FillRequest, points?: ResolvedPoints): CoreFill {
+  const fitted = fitRequest(request, points)
   const { xs, ascending, noun, uniform } = fitted.points
   // under log-discount the anchor at t = 0 is part of the curve, so [0, first knot) counts as inside
   assertInside(fitted.pp, xs, fitted.spec.extrapolation, noun, ascending)

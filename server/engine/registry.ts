@@ -1,13 +1,16 @@
-import { decimalContext, describeFailure, parseDecimal, quote } from './decimal'
+import { describeFailure, parseDecimal, quote, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { akima } from './methods/akima'
+import { beers } from './methods/beers'
+import { karupKing } from './methods/karup-king'
+import { sprague } from './methods/sprague'
 import { cubicClamped } from './methods/cubic-clamped'
 import { cubicNatural } from './methods/cubic-natural'
 import { cubicNotAKnot } from './methods/cubic-not-a-knot'
 import { linear } from './methods/linear'
 import { logLinear } from './methods/log-linear'
 import type { MethodDefinition } from './methods/method'
-import type { MethodListing } from './types'
+import { TABLE_KINDS, type MethodListing } from './types'
 import { pchip } from './methods/pchip'
 import { quadratic } from './methods/quadratic'
 
@@ -21,6 +24,9 @@ const DEFINITIONS: MethodDefinition[] = [
   cubicNotAKnot,
   pchip,
   akima,
+  karupKing,
+  sprague,
+  beers,
 ]
 
 const BY_ID = new Map<string, MethodDefinition>(DEFINITIONS.map(d => [d.id, d]))
@@ -31,6 +37,7 @@ export const METHODS: readonly MethodListing[] = DEFINITIONS.map(d => ({
   id: d.id,
   label: d.label,
   minPoints: d.minPoints,
+  appliesTo: { kinds: [...(d.appliesTo?.kinds ?? TABLE_KINDS)], spacing: d.appliesTo?.spacing ?? 'any' },
   source: d.source,
   summary: d.summary,
   options: d.options.map(o => ({ ...o })),
@@ -44,8 +51,11 @@ export function methodDefinition(id: unknown): MethodDefinition {
   return def
 }
 
-/** Validate the options of a method and fill in defaults; options that do not apply to the chosen settings are dropped. */
-export function resolveOptions(def: MethodDefinition, given: unknown): Record<string, string> {
+/**
+ * Validate the options of a method and fill in defaults; options that do not apply to the chosen settings are dropped.
+ * Decimal options are parsed in the request's working context D (parsing keeps every digit; precision.ts).
+ */
+export function resolveOptions(def: MethodDefinition, given: unknown, D: DecimalCtor): Record<string, string> {
   if (given !== undefined && given !== null && (typeof given !== 'object' || Array.isArray(given))) {
     throw new EngineError('invalid-option', `Options for ${def.id} must be an object of named values.`)
   }
@@ -57,7 +67,6 @@ export function resolveOptions(def: MethodDefinition, given: unknown): Record<st
       throw new EngineError('invalid-option', `Method ${def.id} has no option '${name}'; ${list}.`)
     }
   }
-  const D = decimalContext(50)
   const out: Record<string, string> = {}
   for (const opt of def.options) {
     const value = raw[opt.name] ?? opt.default
