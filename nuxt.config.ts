@@ -1,4 +1,6 @@
+import path from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { buildWorker } from './scripts/build-worker'
 
 // Knotwork: Nuxt 4 with the classic root layout (srcDir pinned, see DEVELOPERS.md).
 const NOTHING_RUNS = "default-src 'none'; frame-ancestors 'none'"
@@ -154,6 +156,13 @@ export default defineNuxtConfig({
       const ours = fileURLToPath(new URL('./server/error-handlers/database-unavailable.ts', import.meta.url))
       const theirs = config.errorHandler ? [config.errorHandler].flat() : []
       config.errorHandler = [ours, ...theirs]
+    },
+    // The worker threads run their own bundle (server/lib/work/worker.ts, see DEVELOPERS.md "Worker threads"): written
+    // beside the server Nitro has just compiled (.output/server/workers/; in dev under .nuxt/), where pool.ts looks.
+    'nitro:init'(nitro) {
+      nitro.hooks.hook('compiled', async () => {
+        await buildWorker(path.join(nitro.options.output.serverDir, 'workers'), { minify: !nitro.options.dev })
+      })
     },
   },
 })

@@ -92,6 +92,7 @@ export function useCompareRun(url: () => string) {
   /** Methods filled so far, as the server reports them while it runs (null until it first answers). */
   const progress = ref<{ done: number, total: number } | null>(null)
   let controller: AbortController | null = null
+  let runUrl: string | null = null
   let timer: ReturnType<typeof setInterval> | undefined
   let poller: ReturnType<typeof setInterval> | undefined
 
@@ -113,6 +114,7 @@ export function useCompareRun(url: () => string) {
     const id = ++started.value
     const begun = performance.now()
     const runId = crypto.randomUUID()
+    runUrl = url().replace(/^(\/api\/orgs\/[^/]+)\/.*$/, `$1/runs/${runId}`)
     running.value = true
     error.value = null
     elapsedMs.value = 0
@@ -143,7 +145,11 @@ export function useCompareRun(url: () => string) {
       }
     }
   }
-  function cancel() { controller?.abort() }
+  /** Closing the connection cancels the run; the explicit cancel also reaches it through a proxy that keeps connections open. */
+  function cancel() {
+    controller?.abort()
+    if (runUrl) $fetch(runUrl, { method: 'DELETE' }).catch(() => {})
+  }
   onBeforeUnmount(() => { controller?.abort(); clearInterval(timer); clearInterval(poller) })
   return { running, elapsedMs, error, response, started, answered, progress, run, cancel }
 }

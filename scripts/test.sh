@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # npm test: the same set-up as npm start against a throwaway database, then lint,
-# type-check, unit, API, browser and reliability tests. Usage: npm test [-- unit|api|browser|reliability|static]
+# type-check, unit, two-node, API, browser and reliability tests.
+# Usage: npm test [-- unit|nodes|api|browser|reliability|static]
 # The reliability suite runs its own PostgreSQL cluster and app server (tests/reliability/stack.ts), which it kills.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -39,8 +40,13 @@ fi
 if [ "$only" = all ] || [ "$only" = unit ]; then
   echo "[test] unit"; npx vitest run --project unit
 fi
-if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ] || [ "$only" = reliability ]; then
+if [ "$only" = all ] || [ "$only" = nodes ] || [ "$only" = api ] || [ "$only" = browser ] || [ "$only" = reliability ]; then
   echo "[test] building"; npx nuxt build > .data/build-test.log 2>&1 || { tail -40 .data/build-test.log; exit 1; }
+fi
+if [ "$only" = all ] || [ "$only" = nodes ]; then
+  # two app nodes of the built server on the test database, started by the test itself; before the server below
+  # starts, so no third node takes the runs the test follows
+  echo "[test] two nodes"; npx vitest run --project nodes
 fi
 if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ]; then
   port="${port_base:-$(( 3100 + ($$ % 400) ))}"

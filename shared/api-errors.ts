@@ -45,7 +45,8 @@ export const API_ERROR_CODES = [
   'service-unreachable',
   'not-configured',
   'mail-failed',
-  'cancelled',
+  'cancelled', // the run was cancelled (by its owner, or its connection closed)
+  'run-unfinished', // the run has no result yet (data.status says where it is)
   'try-later',
   'service-unavailable', // 503: the database cannot be reached just now (Retry-After); the app recovers by itself
 ] as const

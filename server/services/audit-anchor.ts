@@ -16,10 +16,14 @@ export async function chainHead(orgId: string, t?: Transaction): Promise<ChainHe
   return row ? { number: Number(row.seq), eventId: String(row.id), hash: row.hash as string, at: new Date(row.at as string).toISOString() } : null
 }
 
+/** What a signed head states: this organisation's trail ends at `head`, now. */
+export function headStatement(org: OrgRef, reason: HeadReason, key: { kid: string }, head: ChainHead | null): HeadStatement {
+  return { format: HEAD_FORMAT, organisation: { slug: org.slug, name: org.name }, head, statedAt: new Date().toISOString(), reason, keyId: key.kid }
+}
+
 /** The head now, signed. Inside a transaction that holds the trail's lock (after an audit event), it is that head. */
 export async function signedHead(org: OrgRef, reason: HeadReason, key: OpenKey, t?: Transaction): Promise<SignedHead> {
-  const statement: HeadStatement = { format: HEAD_FORMAT, organisation: { slug: org.slug, name: org.name }, head: await chainHead(org.id, t), statedAt: new Date().toISOString(), reason, keyId: key.kid }
-  return signHead(statement, key.privateKey)
+  return signHead(headStatement(org, reason, key, await chainHead(org.id, t)), key.privateKey)
 }
 
 /** Stores a signed checkpoint; a daily one at most once per organisation and UTC day, whichever app node comes first. */

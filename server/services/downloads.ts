@@ -8,7 +8,8 @@ import { TRANSFORM_LISTING } from '../engine/index'
 import { compareCsv, compareSheets, fillCsv, fillSheets, unitsOfRecord } from '../lib/table-files'
 import { writeWorkbook } from '../lib/signing'
 import { versionRecord } from './version-record'
-import { runCompare } from './fills'
+import type { CompareResponseDto } from '#shared/types/fills'
+import { compareJson } from './work/kinds/compare'
 
 // Unsigned working copies to take away before (or besides) sign-off: a version's chosen fill, and a bench comparison.
 export type DownloadFormat = 'csv' | 'xlsx'
@@ -29,9 +30,10 @@ export async function fillDownload(access: OrgAccess, tableId: string, number: n
   return { fileName, contentType: TYPES.xlsx, data: await writeWorkbook(fillSheets(r, banner), now) }
 }
 
-export async function compareDownload(access: OrgAccess, tableId: string, number: number, input: CompareInput, format: DownloadFormat): Promise<DownloadFile> {
+/** The comparison is run again (in a worker thread), so the file shows exactly these settings on the points as they are now. */
+export async function compareDownload(access: OrgAccess, tableId: string, number: number, input: CompareInput, format: DownloadFormat, signal?: AbortSignal): Promise<DownloadFile> {
   const r = await versionRecord(access.org, tableId, number)
-  const answer = await runCompare(access, tableId, number, input)
+  const answer = JSON.parse(await compareJson(access.org.id, tableId, number, input, signal)) as CompareResponseDto
   const now = new Date().toISOString()
   const banner = `NOT SIGNED OFF: a comparison of ${answer.result.entries.length} methods on the fill bench for version ${number} of ${r.table.name}, made ${formatUtc(now)}. Nothing here was chosen, checked or signed off.`
   const settings = `Grid ${input.grid.from} to ${input.grid.to}, step ${input.grid.step}; interpolated on ${transformWords(TRANSFORM_LISTING, input.transform).toLowerCase()}; outside the given points: ${EXTRAPOLATION_LABELS[input.extrapolation].toLowerCase()}.`

@@ -1,49 +1,69 @@
 import type { H3Event } from 'h3'
-import { QueryTypes } from 'sequelize'
+import type { KeyObject } from 'node:crypto'
+import { QueryTypes, type Transaction } from 'sequelize'
 import { isUuid } from '#shared/schemas/route-params'
-import { SIGNED_FORMAT, canonicalBytes, contentSha256, readWorkbookCells, signatureSheetField, signBytes, verifyWorkbookCells, writeSignedWorkbook, type AnySignedContent, type SignedContent, type SignedHead } from '../lib/signing'
-import { guardXlsxZip } from '../lib/import/zip-guard'
-import { ImportRefused } from '../lib/import/limits'
+import { SIGNED_FORMAT, type AnySignedContent, type SignedContent, type SignedHead } from '../lib/signing'
+import { runTask } from '../lib/work/pool'
 import type { OrgAccess } from '../utils/auth'
 import type { ExportVerdictDto } from '#shared/types/exports'
 import type { ReadTableSummaryDto } from '#shared/types/read-tokens'
-import { activeSigningKey, publicKeyById } from './signing-keys'
-import { findTable } from './tables'
+import { activeSigningKey, publicKeysOf } from './signing-keys'
+import { findVersion } from './tables'
 import { signedHead, type OrgRef } from './audit-anchor'
 import { versionRecord } from './version-record'
 import { compareWithTrail } from './audit-verify'
+import { HEAVY_EXPORT_VALUES, newRunKey, startRun } from './work/start'
+import type { ExportRunInput } from './work/kinds/export'
 
+export type { OrgRef } from './audit-anchor'
 type Row = Record<string, unknown>
 const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null)
+/** The private key as PKCS #8 DER bytes, the form it crosses to a worker thread in. */
+export const pkcs8Of = (key: KeyObject) => new Uint8Array(key.export({ format: 'der', type: 'pkcs8' }))
 
-/** The content object of a signed-off (or since withdrawn) version, exactly as it will be signed. */
-async function signedContent(org: OrgRef, tableId: string, number: number, keyId: string): Promise<SignedContent> {
-  const record = await versionRecord(org, tableId, number)
+/**
+ * The content object of a signed-off (or since withdrawn) version, exactly as it will be signed. `t`: read it all in
+ * that transaction (the read API reads it in one snapshot with the stamp of what can still change, signed-bodies.ts).
+ */
+export async function signedContent(org: OrgRef, tableId: string, number: number, keyId: string, t?: Transaction): Promise<SignedContent> {
+  const record = await versionRecord(org, tableId, number, t)
   if (record.version.status !== 'approved' && record.version.status !== 'retired') throw apiError(409, 'not-signed-off', 'Only a signed-off version can be exported with a signature.')
   return { format: SIGNED_FORMAT, ...record, signedAt: new Date().toISOString(), keyId }
 }
 
-export async function exportSignedVersion(event: H3Event, access: OrgAccess, tableId: string, number: number): Promise<{ fileName: string; data: Buffer }> {
-  const key = await activeSigningKey(event, access.org.id)
-  const content = await signedContent(access.org, tableId, number, key.kid)
-  const signature = signBytes(canonicalBytes(content), key.privateKey)
-  const anchor = await signedHead(access.org, 'export', key)
-  const data = await writeSignedWorkbook(content, { signature, keyId: key.kid, x: key.x }, anchor)
-  await audit(event, { orgId: access.org.id, action: 'export.download', objectType: 'table_version', objectId: content.version.id, detail: { tableId, number, keyId: key.kid, bytes: data.length, signedAt: content.signedAt, trailHead: anchor.statement.head?.number ?? 0 } })
-  const safe = content.table.name.replace(/[^A-Za-z0-9 ._-]+/g, '').trim().replace(/\s+/g, '-').slice(0, 80) || 'table'
-  return { fileName: `${safe}-v${number}-signed.xlsx`, data }
+export const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'
+
+/**
+ * Starts the signed workbook of a signed-off version as a run (versions with many fill values through the queue), after
+ * the checks a request answers at once: 404, 409 for a version never signed off, and the organisation's key made if it
+ * has none yet (so the run itself only reads keys).
+ */
+export async function startExport(event: H3Event, access: OrgAccess, tableId: string, number: number, runKey: string = newRunKey()): Promise<{ id: string, runKey: string }> {
+  const version = await findVersion(access.org.id, tableId, number)
+  if (version.status !== 'approved' && version.status !== 'retired') throw apiError(409, 'not-signed-off', 'Only a signed-off version can be exported with a signature.')
+  await activeSigningKey(event, access.org.id)
+  const [values] = await useDb().query<{ n: number }>('SELECT count(*)::int AS n FROM version_fill_points WHERE version_id = :id', { replacements: { id: version.id }, type: QueryTypes.SELECT })
+  const input: ExportRunInput = { tableId, number, origin: { requestId: event.context.requestId ?? null, ip: clientAddress(event) } }
+  return startRun(access, { kind: 'export', runKey, heavy: values!.n > HEAVY_EXPORT_VALUES, input: input as never, total: 1 })
 }
 
-/** Checks an uploaded workbook: signature, every cell, and where the version stands now. */
-export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: string, data: Buffer): Promise<ExportVerdictDto> {
-  if (!(data[0] === 0x50 && data[1] === 0x4b)) throw new ImportRefused(415, 'Upload the .xlsx workbook exactly as Knotwork exported it (this file is not an .xlsx workbook).')
-  await guardXlsxZip(data)
-  let sheets
-  try { sheets = await readWorkbookCells(data) } catch (error) { throw new ImportRefused(422, `The workbook cannot be read: ${(error as Error).message}.`) }
-  const keys = new Map<string, string | null>()
-  const kid = signatureSheetField(sheets, 'Key id')
-  if (kid) keys.set(kid, await publicKeyById(access.org.id, kid))
-  const verdict = verifyWorkbookCells(sheets, kid => keys.get(kid) ?? null)
+/**
+ * The signed workbook, signed and written in a worker thread (stopped when `signal` aborts), with the audit trail's head
+ * signed beside the content (the anchor); the caller audits the download.
+ */
+export async function buildSignedExport(org: OrgRef, tableId: string, number: number, signal?: AbortSignal): Promise<{ fileName: string, data: Buffer, content: SignedContent, anchor: SignedHead }> {
+  const key = await activeSigningKey(null, org.id)
+  const content = await signedContent(org, tableId, number, key.kid)
+  const anchor = await signedHead(org, 'export', key)
+  const built = await runTask('buildExport', { content, pkcs8: pkcs8Of(key.privateKey), x: key.x, anchor }, { signal })
+  const data = Buffer.from(built.data.buffer, built.data.byteOffset, built.data.byteLength)
+  const safe = content.table.name.replace(/[^A-Za-z0-9 ._-]+/g, '').trim().replace(/\s+/g, '-').slice(0, 80) || 'table'
+  return { fileName: `${safe}-v${number}-signed.xlsx`, data, content, anchor }
+}
+
+/** Checks an uploaded workbook (read and checked in a worker thread): signature, every cell, and where the version stands now. */
+export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: string, data: Buffer, signal?: AbortSignal): Promise<ExportVerdictDto> {
+  const verdict = await runTask('verifyExport', { data, keys: await publicKeysOf(access.org.id) }, { signal })
   const base = { fileName, checkedAt: new Date().toISOString() }
   let result: ExportVerdictDto
   if (verdict.kind === 'not-signed') result = { ...base, verdict: 'not-signed', message: verdict.reason }
@@ -72,28 +92,6 @@ export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: 
 
 function summary(c: AnySignedContent): NonNullable<ExportVerdictDto['signed']> {
   return { tableId: c.table.id, tableName: c.table.name, version: c.version.number, approvedBy: c.approvedBy?.name ?? null, approvedAt: c.approvedAt, signedAt: c.signedAt, points: c.points.length, values: c.fill?.values.length ?? 0, format: c.format }
-}
-
-/**
- * A signed-off version as a production system reads it: the same content object an export signs, its Ed25519 signature
- * over the RFC 8785 canonical bytes, and the key id (public keys: /api/keys/<org>.json). Without a number, the version in
- * force; with one, that version if it was ever signed off (in force or since superseded). 404 otherwise.
- * `tag` is the SHA-256 of that content without its signing time (so it covers the key id, the version's state and the
- * table's details): a caller that already holds it (If-None-Match) gets `null` instead of a new payload.
- */
-export async function signedOffPayload(event: H3Event, org: OrgRef, tableId: string, options: { number?: number, holds?: string } = {}):
-Promise<{ tag: string, payload: { content: SignedContent, signature: string, keyId: string, auditHead: SignedHead } | null }> {
-  await findTable(org.id, tableId)
-  const [row] = await useDb().query<{ number: number }>(`SELECT number FROM table_versions WHERE org_id = :orgId AND table_id = :tableId
-    AND ${options.number === undefined ? 'status = \'approved\'' : 'number = :number AND status IN (\'approved\', \'retired\')'}`,
-  { replacements: { orgId: org.id, tableId, number: options.number ?? null }, type: QueryTypes.SELECT })
-  if (!row) notFound(options.number === undefined ? 'signed-off version' : `signed-off version ${options.number}`)
-  const key = await activeSigningKey(event, org.id)
-  const content = await signedContent(org, tableId, row.number, key.kid)
-  const tag = `W/"${contentSha256({ ...content, signedAt: '' })}"`
-  if (options.holds?.split(',').map(t => t.trim()).includes(tag)) return { tag, payload: null }
-  // the trail's head beside the content, signed on its own: the content stays the same from answer to answer
-  return { tag, payload: { content, signature: signBytes(canonicalBytes(content), key.privateKey), keyId: key.kid, auditHead: await signedHead(org, 'read-api', key) } }
 }
 
 /** The organisation's tables that have a signed-off version, as the read API lists them (only `tableIds` when given). */

@@ -32,7 +32,8 @@ export interface Reply<T = unknown> { status: number; body: T; headers: Headers 
  */
 export class Client {
   cookie = ''
-  constructor(readonly address = nextAddress(), readonly base = BASE) {}
+  /** the app node this browser talks to (two-node tests switch it; the cookie goes along) */
+  constructor(readonly address = nextAddress(), public base = BASE) {}
 
   async req<T = unknown>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply<T>> {
     const isRaw = body instanceof Uint8Array || body instanceof FormData || typeof body === 'string'
@@ -83,10 +84,10 @@ export function uniqueEmail(prefix = 'person') {
 
 /**
  * A new organisation with its admin signed in, made the way a person does it: sign-up asks for the address, the link
- * arrives in the fake inbox, and completing it names the organisation and sets the password.
+ * arrives in the fake inbox, and completing it names the organisation and sets the password. `base`: the app node.
  */
-export async function freshOrg(name = `Test Org ${randomBytes(3).toString('hex')}`) {
-  const client = new Client()
+export async function freshOrg(name = `Test Org ${randomBytes(3).toString('hex')}`, base = BASE) {
+  const client = new Client(undefined, base)
   const email = uniqueEmail('admin')
   const password = 'correct horse battery staple'
   const asked = await client.post('/api/auth/signup', { email })

@@ -6,6 +6,7 @@ import { billingRoutes } from './billing'
 import { reviewRoutes } from './review'
 import { readTokenRoutes } from './read-tokens'
 import { trustRoutes } from './trust'
+import { runsRoutes } from './runs'
 import type { RouteExpectation } from './types'
 
 // Each feature adds its own file and spreads it here.
@@ -18,4 +19,5 @@ export const ROUTES: Record<string, RouteExpectation> = {
   ...fillsRoutes,
   ...readTokenRoutes,
   ...trustRoutes,
+  ...runsRoutes,
 }

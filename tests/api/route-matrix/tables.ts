@@ -11,9 +11,10 @@ const draft = (ctx: MatrixContext) => `${table(ctx)}/versions/${ctx.ids.draftNum
 /** A small upload owned by the analyst, inserted behind the app's back for the matrix. */
 async function analystImport(ctx: MatrixContext): Promise<string> {
   const [rows] = await ownerDb().query(`
-    INSERT INTO imports (org_id, owner_id, file_name, file_kind, size_bytes, sheets, expires_at)
-    VALUES (:org, :owner, 'matrix.csv', 'csv', 20, :sheets::jsonb, now() + interval '1 hour') RETURNING id`,
-  { replacements: { org: ctx.ids.org, owner: ctx.ids.analyst, sheets: JSON.stringify([{ name: 'matrix', rows: [['age', 'q'], ['60', '0.01'], ['65', '0.02']], formulas: [], colCount: 2 }]) } })
+    INSERT INTO imports (org_id, owner_id, file_name, file_kind, size_bytes, sheets, sheet_summary, expires_at)
+    VALUES (:org, :owner, 'matrix.csv', 'csv', 20, :sheets::jsonb, :summary::jsonb, now() + interval '1 hour') RETURNING id`,
+  { replacements: { org: ctx.ids.org, owner: ctx.ids.analyst, sheets: JSON.stringify([{ name: 'matrix', rows: [['age', 'q'], ['60', '0.01'], ['65', '0.02']], formulas: [], colCount: 2 }]),
+    summary: JSON.stringify([{ name: 'matrix', rowCount: 3, colCount: 2, headerGuess: 0 }]) } })
   return `/api/orgs/${ctx.org}/imports/${(rows as { id: string }[])[0]!.id}`
 }
 

@@ -8,5 +8,5 @@ export const trustRoutes: Record<string, RouteExpectation> = {
   'GET /api/orgs/[org]/audit/export': { expect: EVERY_MEMBER },
   'GET /api/orgs/[org]/tables/[table]/versions/[version]/download': { path: ctx => `${bench(ctx)}/download?format=csv`, expect: EVERY_MEMBER },
   // an empty body: runners get past the checks and hear 400
-  'POST /api/orgs/[org]/tables/[table]/versions/[version]/compare-download': { path: ctx => `${bench(ctx)}/compare-download?format=csv`, body: {}, expect: RUNNERS },
+  'POST /api/orgs/[org]/tables/[table]/versions/[version]/compare-download': { csrf: 'json', path: ctx => `${bench(ctx)}/compare-download?format=csv`, body: {}, expect: RUNNERS },
 }

@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'tables:edit')
   const { import: id } = readValidParams(event, importParamsSchema)
   const { mapping, acceptWarnings } = await readValidBody(event, importCommitSchema)
-  const created = await withImportSlot(event, access.user.id, 'commit', () => commitImport(event, access, id, mapping, acceptWarnings))
+  const created = await withImportSlot(event, access.user.id, 'commit', () => commitImport(event, access, id, mapping, acceptWarnings, requestSignal(event)))
   setResponseStatus(event, 201)
   return created
 })

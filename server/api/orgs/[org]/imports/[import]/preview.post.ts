@@ -8,5 +8,5 @@ export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'tables:edit')
   const { import: id } = readValidParams(event, importParamsSchema)
   const mapping = await readValidBody(event, importMappingSchema)
-  return withImportSlot(event, access.user.id, 'preview', () => previewImport(access, id, mapping))
+  return withImportSlot(event, access.user.id, 'preview', () => previewImport(access, id, mapping, requestSignal(event)))
 })

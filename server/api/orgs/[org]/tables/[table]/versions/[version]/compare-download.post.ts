@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const { table, version } = readValidParams(event, versionParamsSchema)
   const { format } = readValidQuery(event, querySchema)
   const input = await readValidBody(event, compareSchema)
-  const file = await compareDownload(access, table, version, input, format)
+  const file = await compareDownload(access, table, version, input, format, requestSignal(event))
   setResponseHeader(event, 'content-type', file.contentType)
   setResponseHeader(event, 'content-disposition', `attachment; filename="${file.fileName}"`)
   return file.data
