@@ -239,6 +239,14 @@ function floatDoubt(lnPErrors: number, dt: number, F: number): number {
   return 2 * (lnPErrors / dt + 3 * u * Math.abs(F)) + FLOAT_TINY
 }
 
+/** How the fill goes on outside the given points, in words (the rule's id kept where a reader may look it up). */
+const EXTRAPOLATION_WORDS: Partial<Record<string, string>> = {
+  flat: 'the end value held flat',
+  linear: 'the end piece extended as a straight line',
+  gompertz: "closed at old ages by a Gompertz law fitted to the oldest given ages (rule 'gompertz')",
+  kannisto: "closed at old ages by a Kannisto law fitted to the oldest given ages (rule 'kannisto')",
+}
+
 function extrapolationNotes(core: CoreFill): string[] {
   const lo = core.pp.breaks[0]!
   const hi = core.pp.breaks[core.pp.breaks.length - 1]!
@@ -249,6 +257,6 @@ function extrapolationNotes(core: CoreFill): string[] {
     else if (x.gt(hi)) above += 1
   }
   if (below + above === 0) return []
-  const rule = core.spec.extrapolation === 'flat' ? 'the end value held flat' : 'the end piece extended as a straight line'
+  const rule = EXTRAPOLATION_WORDS[core.spec.extrapolation] ?? `extended by rule '${core.spec.extrapolation}'`
   return [`${below + above} point(s) lie outside the given points, ${lo.toString()} to ${hi.toString()} (${below} below, ${above} above); there the fill is ${rule}.`]
 }
