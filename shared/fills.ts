@@ -9,6 +9,7 @@ export const EXTRAPOLATION_LABELS: Record<ExtrapolationRule, string> = {
   error: 'Refuse points outside the given range',
   flat: 'Hold the end value flat',
   linear: 'Extend the end piece as a straight line',
+  method: 'Let the method carry on by its own rule',
 }
 
 /** Preselected on the bench: the three methods whose contrast matters most. */

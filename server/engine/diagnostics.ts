@@ -1,8 +1,9 @@
 import { roundTo, sign, type Dec } from './decimal'
 import { bumpReach } from './bump'
+import { intensityOf, rateInDomain, rateOfIntensityExact, roughIntensity } from './compounding'
 import { evaluateValues, type CoreFill } from './pipeline'
 import { hornerDerivative, type PiecewisePolynomial } from './piecewise'
-import type { CurvatureReport, Diagnostics, ForwardReport, Located, MonotonicityReport, RangeReport, Span, TableKind } from './types'
+import type { Compounding, CurvatureReport, Diagnostics, ForwardReport, Located, MonotonicityReport, RangeReport, Span, TableKind } from './types'
 
 const LIST_LIMIT = 20
 
@@ -21,7 +22,7 @@ export function computeDiagnostics(core: CoreFill): Diagnostics {
     roughness: roughness(ys, P),
     monotonicity: monotonicity(core.knots.y, xs, ys),
     outOfRange: outOfRange(core.spec.kind, xs, ys),
-    forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P) : null,
+    forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P, core.spec.compounding ?? 'annual') : null,
     bump: bumpReach(core),
     notes: [...core.notes, ...extrapolationNotes(core)],
   }
@@ -152,26 +153,30 @@ function outOfRange(kind: TableKind, xs: Dec[], ys: Dec[]): RangeReport {
 }
 
 /**
- * Forward rates between consecutive points: F = (ln P(t1) - ln P(t2)) / (t2 - t1) (continuous), reported with annual
- * compounding f = exp(F) - 1 (Hull, Options, Futures and Other Derivatives, ch. 4). ln P = -t ln(1 + r) for spot rates,
- * ln P for discount factors. A decimal ln costs ~0.1 ms at 50 digits, so the scan over every pair runs in binary
+ * Forward rates between consecutive points: F = (ln P(t1) - ln P(t2)) / (t2 - t1) (continuous), reported under the curve's
+ * compounding (annual f = exp(F) - 1; Hull, Options, Futures and Other Derivatives, ch. 4). ln P = -t intensity(r) for spot
+ * rates (compounding.ts), ln P for discount factors. A decimal ln costs ~0.1 ms at 50 digits, so the scan over every pair runs in binary
  * floating point only to rank and locate (minimum, largest jump, sign); every figure reported, and the sign of any
  * forward within FLOAT_DOUBT of zero, is computed again in decimal.
  */
 const FLOAT_DOUBT = 1e-9
 
-function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number): ForwardReport {
-  const convention = 'annual compounding between consecutive filled points; located on continuously compounded forwards'
+function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number, c: Compounding): ForwardReport {
+  const convention = `${c} compounding between consecutive filled points; located on continuously compounded forwards`
   const exactLnP = (k: number): Dec | null => {
     const t = xs[k]!
     const y = ys[k]!
-    if (kind === 'spot-rate') return t.isZero() ? t : y.gt(-1) ? y.plus(1).ln().times(t).neg() : null
+    // ln P = -t intensity(r) for spot rates under c (compounding.ts), ln P for discount factors
+    if (kind === 'spot-rate') return t.isZero() ? t : rateInDomain(y, c) ? intensityOf(y, c).times(t).neg() : null
     return y.gt(0) ? y.ln() : null
   }
   const roughLnP = ys.map((y, k) => {
     const t = xs[k]!.toNumber()
     const v = y.toNumber()
-    if (kind === 'spot-rate') return t === 0 ? 0 : v > -1 ? -t * Math.log1p(v) : null
+    if (kind === 'spot-rate') {
+      const F = roughIntensity(v, c)
+      return t === 0 ? 0 : F === null ? null : -t * F
+    }
     return v > 0 ? Math.log(v) : null
   })
   const fwd: { rough: number, k: number }[] = [] // pair (k-1, k)
@@ -184,7 +189,7 @@ function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number): For
   }
   if (fwd.length === 0) return { convention, minimum: null, negativeCount: 0, negatives: [], largestJump: null }
   const exactF = (k: number): Dec => exactLnP(k - 1)!.minus(exactLnP(k)!).div(xs[k]!.minus(xs[k - 1]!))
-  const annual = (F: Dec) => roundTo(F.exp().minus(1), precision).toString()
+  const quoted = (F: Dec) => roundTo(rateOfIntensityExact(F, c), precision).toString()
   let min = fwd[0]!
   const negatives: Span[] = []
   let negativeCount = 0
@@ -206,11 +211,11 @@ function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number): For
   if (jumpAt > 0) {
     const before = exactF(fwd[jumpAt - 1]!.k)
     const after = exactF(fwd[jumpAt]!.k)
-    largestJump = { value: roundTo(after.exp().minus(before.exp()), precision).toString(), at: xs[fwd[jumpAt]!.k - 1]!.toString() }
+    largestJump = { value: roundTo(rateOfIntensityExact(after, c).minus(rateOfIntensityExact(before, c)), precision).toString(), at: xs[fwd[jumpAt]!.k - 1]!.toString() }
   }
   return {
     convention,
-    minimum: { value: annual(exactF(min.k)), from: xs[min.k - 1]!.toString(), to: xs[min.k]!.toString() },
+    minimum: { value: quoted(exactF(min.k)), from: xs[min.k - 1]!.toString(), to: xs[min.k]!.toString() },
     negativeCount,
     negatives,
     largestJump,

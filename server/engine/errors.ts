@@ -9,6 +9,8 @@ export type EngineErrorCode =
   | 'invalid-grid'
   | 'outside-knots'
   | 'transform-domain'
+  | 'not-applicable'
+  | 'calibration-failed'
 
 export class EngineError extends Error {
   readonly code: EngineErrorCode

@@ -1,7 +1,9 @@
 import {
   DEFAULT_PRECISION, GUARD_DIGITS, MAX_PRECISION, MIN_PRECISION, decimalContext, quote, roundTo, type Dec, type DecimalCtor,
 } from './decimal'
+import { curveMethodScale, isCurveKind, logDiscountTransform, resolveCompounding, spotRateAtZero } from './compounding'
 import { EngineError } from './errors'
+import { checkApplicability } from './applicability'
 import { assertInside, evaluateAny, evaluateAscending, type UniformGrid } from './evaluate'
 import { resolvePoints, type ResolvedPoints } from './grid'
 import { parseKnots, type ParsedKnots } from './knots'
@@ -9,12 +11,12 @@ import type { MethodDefinition } from './methods/method'
 import { resolveMoneyOptions } from './money-options'
 import type { PiecewisePolynomial } from './piecewise'
 import { methodDefinition, resolveOptions } from './registry'
-import { TRANSFORMS, spotRateAtZero, type TransformDefinition } from './transforms'
-import type { ExtrapolationRule, FillRequest, Knot, ResolvedSpec, TableKind, TransformId } from './types'
+import { TRANSFORMS, type TransformDefinition } from './transforms'
+import { EXTRAPOLATION_RULES, type ExtrapolationRule, type FillRequest, type Knot, type ResolvedSpec, type TableKind, type TransformId } from './types'
 import { ENGINE_VERSION } from './version'
 
 const KINDS: TableKind[] = ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other']
-const RULES: ExtrapolationRule[] = ['error', 'flat', 'linear']
+const RULES: readonly ExtrapolationRule[] = EXTRAPOLATION_RULES
 
 /** A fitted request: what the evaluator, the diagnostics and the money view share. */
 export interface FittedRequest {
@@ -59,6 +61,8 @@ export function fitRequest(request: FillRequest, withPoints = true): FittedReque
   const transformId = pick<TransformId>(request.transform, Object.keys(TRANSFORMS) as TransformId[], 'none', 'transform')
   const extrapolation = pick(request.extrapolation, RULES, 'error', 'extrapolation rule')
   const kind = pick(request.kind, KINDS, 'other', 'kind')
+  const compounding = resolveCompounding(request.compounding, kind)
+  checkApplicability(def, kind, extrapolation)
   const precision = resolvePrecision(request.precision)
   const workingPrecision = precision + GUARD_DIGITS
   const D = decimalContext(workingPrecision)
@@ -66,7 +70,9 @@ export function fitRequest(request: FillRequest, withPoints = true): FittedReque
   if (def.scale === 'log' && transformId !== 'none') {
     throw new EngineError('invalid-request', `Method ${def.id} already interpolates ln y; use transform 'none' with it, or method linear with transform 'log'.`)
   }
-  const transform = TRANSFORMS[def.scale === 'log' ? 'log' : transformId]
+  const transform = def.scale === 'log-discount'
+    ? curveMethodScale(def.id, kind, transformId, compounding)
+    : transformId === 'log-discount' ? logDiscountTransform(compounding) : TRANSFORMS[def.scale === 'log' ? 'log' : transformId]
   const knots = parseKnots(D, request.knots)
   if (knots.x.length < def.minPoints) {
     throw new EngineError('too-few-points', `Method ${def.id} needs at least ${def.minPoints} points; ${knots.x.length} ${knots.x.length === 1 ? 'was' : 'were'} given.`)
@@ -77,22 +83,23 @@ export function fitRequest(request: FillRequest, withPoints = true): FittedReque
   let x = knots.x
   const y = knots.y.map((value, i) => {
     if (!transform.accepts(x[i]!, value)) {
-      const why = def.scale === 'log' ? `${def.id} needs y > 0` : `transform ${transform.id} needs ${transform.domain}`
+      const why = def.scale === 'log' ? `${def.id} needs y > 0` : def.scale === 'log-discount' ? `${def.id} works on ln P(t) and needs ${transform.domain}` : `transform ${transform.id} needs ${transform.domain}`
       throw new EngineError('transform-domain', `Point ${knots.position[i]} (x = ${x[i]!.toString()}): y '${value.toString()}' is outside the domain; ${why}.`, knots.position[i])
     }
     return transform.forward(x[i]!, value)
   })
-  if (transform.id === 'log-discount' && !x[0]!.isZero()) {
+  if (transform.anchorAtZero && !x[0]!.isZero()) {
     // ln P(0) = 0 by definition (P(0) = 1): anchor the curve there so short terms are interpolated, not extrapolated.
     x = [new D(0), ...x]
     y.unshift(new D(0))
-    notes.push('log-discount: the point t = 0, ln P(0) = 0 (P(0) = 1 by definition), was added to the knots.')
+    notes.push(`${def.scale === 'log-discount' ? def.id : 'log-discount'}: the point t = 0, ln P(0) = 0 (P(0) = 1 by definition), was added to the knots.`)
   }
-  const pp = def.fit(x, y, options, D)
+  const resolved = def.calibrate ? def.calibrate(x, y, options, D) : options
+  const pp = def.fit(x, y, resolved, D)
   const spec: ResolvedSpec = {
     engineVersion: ENGINE_VERSION,
     method: def.id,
-    options,
+    options: resolved,
     transform: transformId,
     extrapolation,
     grid: points.grid,
@@ -101,6 +108,7 @@ export function fitRequest(request: FillRequest, withPoints = true): FittedReque
     workingPrecision,
     rounding: 'half-even',
     kind,
+    ...(isCurveKind(kind) ? { compounding } : {}),
     money,
     knotCount: knots.x.length,
   }
@@ -117,7 +125,9 @@ export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = fal
   // without a transform the polynomial's exact value is rounded once, to the stated precision;
   // with one, to the working precision, and the inverse transform's result to the stated precision
   const digits = transform.id === 'none' ? P : spec.workingPrecision
-  const raw = ascending ? evaluateAscending(pp, xs, spec.extrapolation, digits, uniform) : evaluateAny(pp, xs, spec.extrapolation, digits)
+  const raw = pp.closedForm
+    ? pp.closedForm.evaluate(xs, digits)
+    : ascending ? evaluateAscending(pp, xs, spec.extrapolation, digits, uniform) : evaluateAny(pp, xs, spec.extrapolation, digits)
   if (transform.id === 'none') return raw
   const out: Dec[] = new Array<Dec>(xs.length)
   let atZero: Dec | null = null
@@ -136,10 +146,11 @@ export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = fal
 
 /** r(0) under log-discount: the given rate if a knot sits at t = 0, else the limit from the slope of ln P at 0. */
 function logDiscountAtZero(fitted: FittedRequest): Dec {
-  const { knots, pp } = fitted
+  const { knots, pp, spec } = fitted
   if (knots.x[0]!.isZero()) return knots.y[0]!
-  // the anchor (0, 0) is the first break, so the slope at 0 is c1 of the first piece
-  return spotRateAtZero(pp.coefs[0]![1] ?? pp.coefs[0]![0]!.times(0))
+  // the anchor (0, 0) is the first break, so the slope at 0 is c1 of the first piece (or the closed form's slope)
+  const slope = pp.closedForm ? pp.closedForm.derivative(pp.breaks[0]!, 1) : pp.coefs[0]![1] ?? pp.coefs[0]![0]!.times(0)
+  return spotRateAtZero(slope, spec.compounding)
 }
 
 /** Fit and evaluate at the output points: the hot path (no diagnostics, no money). */

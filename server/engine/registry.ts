@@ -1,5 +1,6 @@
 import { decimalContext, describeFailure, parseDecimal, quote } from './decimal'
 import { EngineError } from './errors'
+import { extrapolationRules } from './applicability'
 import { akima } from './methods/akima'
 import { cubicClamped } from './methods/cubic-clamped'
 import { cubicNatural } from './methods/cubic-natural'
@@ -7,7 +8,7 @@ import { cubicNotAKnot } from './methods/cubic-not-a-knot'
 import { linear } from './methods/linear'
 import { logLinear } from './methods/log-linear'
 import type { MethodDefinition } from './methods/method'
-import type { MethodListing } from './types'
+import { TABLE_KINDS, type MethodListing } from './types'
 import { pchip } from './methods/pchip'
 import { quadratic } from './methods/quadratic'
 
@@ -34,6 +35,8 @@ export const METHODS: readonly MethodListing[] = DEFINITIONS.map(d => ({
   source: d.source,
   summary: d.summary,
   options: d.options.map(o => ({ ...o })),
+  appliesTo: d.appliesTo ? { ...d.appliesTo, kinds: [...d.appliesTo.kinds] } : { kinds: [...TABLE_KINDS], spacing: 'any' as const },
+  extrapolation: extrapolationRules(d),
 }))
 
 export function methodDefinition(id: unknown): MethodDefinition {
@@ -67,9 +70,13 @@ export function resolveOptions(def: MethodDefinition, given: unknown): Record<st
       }
       out[opt.name] = value
     }
+    else if (typeof value === 'string' && opt.keywords?.includes(value)) {
+      out[opt.name] = value // a word the method resolves (e.g. 'auto'), in calibrate
+    }
     else {
       const parsed = parseDecimal(D, value)
-      if (!parsed.ok) throw new EngineError('invalid-option', `Option ${opt.name} of ${def.id}: ${quote(value)} ${describeFailure(parsed.reason)}.`)
+      const words = opt.keywords?.length ? ` (give a decimal string or ${opt.keywords.map(w => `'${w}'`).join(', ')})` : ''
+      if (!parsed.ok) throw new EngineError('invalid-option', `Option ${opt.name} of ${def.id}: ${quote(value)} ${describeFailure(parsed.reason)}${words}.`)
       out[opt.name] = parsed.value.toString()
     }
   }

@@ -3,20 +3,27 @@
 // All table values are decimal strings.
 
 /** Interpolation methods, in the order the product lists them. */
-export const METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima'] as const
+export const METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima', 'monotone-convex', 'smith-wilson'] as const
 export type MethodId = (typeof METHOD_IDS)[number]
 
 /** Scales a method may work on (the values are mapped there, filled, and mapped back). */
 export const TRANSFORM_IDS = ['none', 'log', 'logit', 'cumulative-hazard', 'log-discount'] as const
 export type TransformId = (typeof TRANSFORM_IDS)[number]
 
-/** What happens to points outside the given range. */
-export const EXTRAPOLATION_RULES = ['error', 'flat', 'linear'] as const
+/** What happens to points outside the given range ('method': the method extends itself, where it has its own extension). */
+export const EXTRAPOLATION_RULES = ['error', 'flat', 'linear', 'method'] as const
 export type ExtrapolationRule = (typeof EXTRAPOLATION_RULES)[number]
 
 /** Table kinds: they decide the range checks, the forward-rate check and the money view. */
 export const TABLE_KINDS = ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other'] as const
 export type TableKind = (typeof TABLE_KINDS)[number]
+
+/** How a curve table's spot rates compound: ln P(t) = -t ln(1 + r), -r t, or -2t ln(1 + r/2). */
+export const COMPOUNDING_IDS = ['annual', 'continuous', 'semi-annual'] as const
+export type Compounding = (typeof COMPOUNDING_IDS)[number]
+
+/** Table kinds whose values are a curve (spot rates or discount factors): compounding and forward rates apply. */
+export const CURVE_KINDS = ['spot-rate', 'discount-factor'] as const satisfies readonly TableKind[]
 
 export interface Knot { x: string, y: string }
 export interface GridSpec { from: string, to: string, step: string }
@@ -47,6 +54,8 @@ export interface FillRequest {
   /** Significant digits of the results (default 40), half-even rounding. */
   precision?: number
   kind?: TableKind
+  /** Curve kinds only: how the spot rates compound (default annual); curve methods work on ln P(t) under it. */
+  compounding?: Compounding
   money?: MoneyOptions
 }
 
@@ -71,6 +80,8 @@ export interface ResolvedSpec {
   workingPrecision: number
   rounding: 'half-even'
   kind: TableKind
+  /** Present for curve kinds (spot-rate, discount-factor): the compounding the rates were read and reported in. */
+  compounding?: Compounding
   money: ResolvedMoneyOptions
   knotCount: number
 }
@@ -202,10 +213,20 @@ export interface OptionDescriptor {
   name: string
   type: 'enum' | 'decimal'
   values?: string[]
+  /** Decimal options only: words accepted instead of a number (e.g. 'auto'), resolved by the method to a number. */
+  keywords?: string[]
   default: string
   description: string
   /** The option is used only when another option has one of these values, e.g. { condition: ['left-slope'] }. */
   appliesWhen?: Record<string, string[]>
+}
+
+/** Where a method applies, so a client offers it only there. */
+export interface MethodApplicability {
+  /** Table kinds the method fills. */
+  kinds: TableKind[]
+  /** Spacing of the given x the method accepts: 'any', or 'equal' steps only. */
+  spacing: 'any' | 'equal'
 }
 
 /** What a client may show about a method: no functions, only data. */
@@ -218,6 +239,9 @@ export interface MethodListing {
   source: string
   summary: string
   options: OptionDescriptor[]
+  appliesTo: MethodApplicability
+  /** Extrapolation rules the method accepts ('method' only where it has its own extension). */
+  extrapolation: ExtrapolationRule[]
 }
 
 /** What a client may show about a transform. */

@@ -1,13 +1,26 @@
 import type { Dec, DecimalCtor } from '../decimal'
 import type { PiecewisePolynomial } from '../piecewise'
-import type { MethodId, MethodListing, OptionDescriptor } from '../types'
+import type { MethodApplicability, MethodId, MethodListing, OptionDescriptor } from '../types'
 
 export type { OptionDescriptor }
 
-export interface MethodDefinition extends MethodListing {
+export interface MethodDefinition extends Omit<MethodListing, 'appliesTo' | 'extrapolation'> {
   id: MethodId
-  /** 'log': the method works on ln y by construction (log-linear); the request's transform must then be 'none'. */
-  scale?: 'log'
+  /**
+   * 'log': the method works on ln y by construction (log-linear); the request's transform must then be 'none'.
+   * 'log-discount': a curve method, it works on ln P(t) by construction (curve kinds only, transform 'none'; the
+   * spot rates are read under the request's compounding, and the point t = 0, ln P = 0 is part of the curve).
+   */
+  scale?: 'log' | 'log-discount'
+  /** Where the method applies (default: every kind, any spacing). */
+  appliesTo?: MethodApplicability
+  /**
+   * The method's own extension beyond the knots (extrapolation 'method'): 'optional' accepts it beside the other rules,
+   * 'required' accepts only 'method' (or 'error') beyond the knots. Absent: the method has none and 'method' is refused.
+   */
+  extension?: 'optional' | 'required'
+  /** Completes options that depend on the data (a calibration) before the fit; the spec records what it returns. */
+  calibrate?(x: Dec[], y: Dec[], options: Record<string, string>, D: DecimalCtor): Record<string, string>
   /** Fit pieces through sorted, distinct x with values y (already on the method's scale). Options are resolved. */
   fit(x: Dec[], y: Dec[], options: Record<string, string>, D: DecimalCtor): PiecewisePolynomial
 }
