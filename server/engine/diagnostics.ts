@@ -24,6 +24,7 @@ export function computeDiagnostics(core: CoreFill): Diagnostics {
     outOfRange: outOfRange(core.spec.kind, xs, ys),
     forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P, core.spec.compounding ?? 'annual') : null,
     bump: bumpReach(core),
+    ...(core.pp.closedForm?.convergence ? { convergence: core.pp.closedForm.convergence } : {}),
     notes: [...core.notes, ...extrapolationNotes(core)],
   }
 }
@@ -65,6 +66,14 @@ function curvature(pp: PiecewisePolynomial, precision: number): CurvatureReport 
     samples.push({ x: pp.breaks[i]!, value: hornerDerivative(c, h.times(0), 2) })
     samples.push({ x: pp.breaks[i + 1]!, value: hornerDerivative(c, h, 2) })
   })
+  const closed = pp.closedForm
+  if (closed) {
+    // a closed form (twice differentiable) is read at every knot
+    pp.breaks.forEach((x, i) => {
+      if (i > 0 && x.minus(pp.breaks[i - 1]!).lt(hMin)) hMin = x.minus(pp.breaks[i - 1]!)
+      samples.push({ x, value: closed.derivative(x, 2) })
+    })
+  }
   const floor = yMax.div(hMin).div(hMin).times(`1e-${precision}`)
   const at: Span[] = []
   let prev: { x: Dec, s: number } | null = null

@@ -1,4 +1,5 @@
 import type { Dec } from './decimal'
+import type { ConvergenceReport } from './types'
 
 /**
  * A piecewise polynomial: on [breaks[i], breaks[i+1]) the value is sum_k coefs[i][k] * t^k with t = x - breaks[i]
@@ -19,6 +20,9 @@ export interface ClosedForm {
   evaluate(xs: Dec[], digits: number): Dec[]
   /** First or second derivative on the method's scale at x. */
   derivative(x: Dec, order: 1 | 2): Dec
+  /** What the fit has to say beside the result (knots it left out, a calibration). */
+  notes?: string[]
+  convergence?: ConvergenceReport
 }
 
 /** Horner's rule: c0 + t (c1 + t (c2 + t c3)) (Horner 1819; Knuth, TAOCP vol. 2, 4.6.4). */

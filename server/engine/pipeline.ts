@@ -96,6 +96,7 @@ export function fitRequest(request: FillRequest, withPoints = true): FittedReque
   }
   const resolved = def.calibrate ? def.calibrate(x, y, options, D) : options
   const pp = def.fit(x, y, resolved, D)
+  if (pp.closedForm?.notes) notes.push(...pp.closedForm.notes)
   const spec: ResolvedSpec = {
     engineVersion: ENGINE_VERSION,
     method: def.id,

@@ -8,9 +8,11 @@ import { cubicNotAKnot } from './methods/cubic-not-a-knot'
 import { linear } from './methods/linear'
 import { logLinear } from './methods/log-linear'
 import type { MethodDefinition } from './methods/method'
+import { monotoneConvex } from './methods/monotone-convex'
 import { TABLE_KINDS, type MethodListing } from './types'
 import { pchip } from './methods/pchip'
 import { quadratic } from './methods/quadratic'
+import { smithWilson } from './methods/smith-wilson'
 
 /** Every method, in the order the product lists them. Adding a method: one file in methods/ and one line here. */
 const DEFINITIONS: MethodDefinition[] = [
@@ -22,6 +24,8 @@ const DEFINITIONS: MethodDefinition[] = [
   cubicNotAKnot,
   pchip,
   akima,
+  monotoneConvex,
+  smithWilson,
 ]
 
 const BY_ID = new Map<string, MethodDefinition>(DEFINITIONS.map(d => [d.id, d]))

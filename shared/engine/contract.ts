@@ -132,7 +132,26 @@ export interface Diagnostics {
   forwards: ForwardReport | null
   /** Locality of a bump of the middle given point (null with fewer than 3 points, or when the bumped value is outside the transform's domain). */
   bump: BumpReport | null
+  /** Methods that converge to an ultimate forward rate (smith-wilson): how close the forward comes at the convergence point. */
+  convergence?: ConvergenceReport
   notes: string[]
+}
+
+/** Smith-Wilson's convergence check: the forward intensity at the convergence point against ln(1 + UFR). */
+export interface ConvergenceReport {
+  convergencePoint: string
+  alpha: string
+  /** ln(1 + UFR), the ultimate forward intensity. */
+  ultimateIntensity: string
+  /** The forward intensity -d ln P/dt at the convergence point. */
+  forwardIntensity: string
+  /** |forwardIntensity - ultimateIntensity| */
+  gap: string
+  /** The largest gap allowed: 0.0001 (1 basis point). */
+  tolerance: string
+  met: boolean
+  /** The same check one step of the alpha search grid lower (null below the lower bound 0.05): not met when alpha was calibrated. */
+  below: { alpha: string, gap: string, met: boolean } | null
 }
 
 export interface BumpReport {
