@@ -19,3 +19,8 @@ export function checkApplicability(def: MethodDefinition, kind: TableKind, rule:
   }
   throw new EngineError('not-applicable', `Method ${def.id} extends itself beyond the knots; choose extrapolation 'method' to use that extension, or 'error' to keep the points inside the knots ('${rule}' is not offered with it).`)
 }
+
+/** What to suggest when a point lies outside the knots under 'error'. */
+export function extrapolationAdvice(def: MethodDefinition): string {
+  return def.extension === 'required' ? "choose extrapolation 'method' (the method's own extension)" : "choose 'flat' or 'linear' extrapolation"
+}

@@ -14,7 +14,7 @@ export interface UniformGrid {
  * Check the extrapolation rule before any work: with 'error', name the first point (in the caller's order)
  * that lies outside [x_min, x_max].
  */
-export function assertInside(pp: PiecewisePolynomial, xs: Dec[], rule: ExtrapolationRule, what: string, ascending = false): void {
+export function assertInside(pp: PiecewisePolynomial, xs: Dec[], rule: ExtrapolationRule, what: string, ascending = false, advice = "choose 'flat' or 'linear' extrapolation"): void {
   if (rule !== 'error' || xs.length === 0) return
   const lo = pp.breaks[0]!
   const hi = pp.breaks[pp.breaks.length - 1]!
@@ -26,7 +26,7 @@ export function assertInside(pp: PiecewisePolynomial, xs: Dec[], rule: Extrapola
       throw new EngineError(
         'outside-knots',
         `${what} ${k + 1} (x = ${x.toString()}) lies outside the knots [${lo.toString()}, ${hi.toString()}] `
-        + `and extrapolation is 'error'; choose 'flat' or 'linear' extrapolation, or keep the points inside the knots.`,
+        + `and extrapolation is 'error'; ${advice}, or keep the points inside the knots.`,
       )
     }
   }

@@ -3,7 +3,7 @@ import {
 } from './decimal'
 import { curveMethodScale, isCurveKind, logDiscountTransform, resolveCompounding, spotRateAtZero } from './compounding'
 import { EngineError } from './errors'
-import { checkApplicability } from './applicability'
+import { checkApplicability, extrapolationAdvice } from './applicability'
 import { assertInside, evaluateAny, evaluateAscending, type UniformGrid } from './evaluate'
 import { resolvePoints, type ResolvedPoints } from './grid'
 import { parseKnots, type ParsedKnots } from './knots'
@@ -159,7 +159,7 @@ export function fillCore(request: FillRequest): CoreFill {
   const fitted = fitRequest(request)
   const { xs, ascending, noun, uniform } = fitted.points
   // under log-discount the anchor at t = 0 is part of the curve, so [0, first knot) counts as inside
-  assertInside(fitted.pp, xs, fitted.spec.extrapolation, noun, ascending)
+  assertInside(fitted.pp, xs, fitted.spec.extrapolation, noun, ascending, extrapolationAdvice(fitted.def))
   const values = evaluateValues(fitted, xs, ascending, uniform)
   const output: Knot[] = new Array<Knot>(xs.length)
   for (let k = 0; k < xs.length; k += 1) output[k] = { x: xs[k]!.toString(), y: values[k]!.toString() }
