@@ -270,3 +270,57 @@ export interface TransformListing {
   domain: string
   description: string
 }
+
+/** A given value of a two-way table: x (e.g. age at entry) and d (e.g. duration) on the two axes. */
+export interface Knot2D { x: string, d: string, y: string }
+
+/** A method for one axis of a two-way fill. */
+export interface AxisMethod { method: MethodId, options?: Record<string, string> }
+
+/** One axis's output points: a regular grid or a list. */
+export type AxisPoints = GridSpec | string[]
+
+export interface Fill2DRequest {
+  /** Values on a full rectangular grid: every x with every d, once. */
+  knots: Knot2D[]
+  /** One method for both axes (its options in `options`), or one per axis. */
+  method: MethodId | { x: AxisMethod, d: AxisMethod }
+  options?: Record<string, string>
+  /** A scale applied to y before both passes and undone after them (none, log, logit, cumulative-hazard). */
+  transform?: TransformId
+  /** Either a grid on each axis (every x with every d) ... */
+  grid?: { x: AxisPoints, d: AxisPoints }
+  /** ... or a list of points (output keeps this order). */
+  at?: { x: string, d: string }[]
+  /** Applies along both axes ('method' is not offered: no method that fills both axes has an extension of its own). */
+  extrapolation?: ExtrapolationRule
+  precision?: number
+  kind?: TableKind
+}
+
+export interface Resolved2DSpec {
+  engineVersion: string
+  /** The methods and resolved options, per axis; the fill runs along x first (every given d), then along d. */
+  methods: { x: { method: MethodId, options: Record<string, string> }, d: { method: MethodId, options: Record<string, string> } }
+  transform: TransformId
+  extrapolation: ExtrapolationRule
+  grid: { x: GridSpec | string[], d: GridSpec | string[] } | null
+  at: { x: string, d: string }[] | null
+  precision: number
+  workingPrecision: number
+  rounding: 'half-even'
+  kind: TableKind
+  /** Given values along each axis. */
+  knotCount: { x: number, d: number }
+}
+
+export interface Fill2DResult {
+  points: Knot2D[]
+  spec: Resolved2DSpec
+  diagnostics: {
+    /** Largest |filled - given| over the given points, both rounded to the stated precision. */
+    maxKnotDeviation: string
+    knotsReproduced: boolean
+    notes: string[]
+  }
+}

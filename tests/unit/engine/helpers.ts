@@ -14,10 +14,11 @@ export function knots(xs: (string | number)[], ys: (string | number)[]): { x: st
   return xs.map((x, i) => ({ x: String(x), y: String(ys[i]) }))
 }
 
-/** The EngineError a call throws (fails the test if it throws nothing or something else). */
-export function engineErrorOf(request: FillRequest, run: (r: FillRequest) => unknown = fill): EngineError {
+/** The EngineError a fill of this request (or this call) throws; fails the test if it throws nothing or something else. */
+export function engineErrorOf(request: FillRequest | (() => unknown)): EngineError {
   try {
-    run(request)
+    if (typeof request === 'function') request()
+    else fill(request)
   }
   catch (e) {
     if (e instanceof EngineError) return e
