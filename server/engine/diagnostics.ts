@@ -24,7 +24,7 @@ export function computeDiagnostics(core: CoreFill): Diagnostics {
     outOfRange: outOfRange(core.spec.kind, xs, ys),
     forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P, core.spec.compounding ?? 'annual') : null,
     bump: bumpReach(core),
-    ...(core.pp.closedForm?.convergence ? { convergence: core.pp.closedForm.convergence } : {}),
+    ...(core.pp.closedForm?.convergence ? { convergence: core.pp.closedForm.convergence() } : {}),
     notes: [...core.notes, ...extrapolationNotes(core)],
   }
 }

@@ -77,7 +77,9 @@ export function fill2d(request: Fill2DRequest): Fill2DResult {
   assertAxisInside(grid.ds, wanted.ds.flat(), rule, 'd')
   const run: Passes = { ax, ad, grid, z, rule, transform, P, F }
   const values = runPasses(run, wanted)
-  const points: Knot2D[] = wanted.order.map(({ x, d }) => ({ x: x.toString(), d: d.toString(), y: values.get(`${x.toString()}|${d.toString()}`)!.toString() }))
+  const xText = wanted.xs.map(x => x.toString())
+  const dText = wanted.ds.map(row => row.map(d => d.toString()))
+  const points: Knot2D[] = wanted.order.map(([k, j]) => ({ x: xText[k]!, d: dText[k]![j]!, y: values[k]![j]!.toString() }))
   return {
     points,
     spec: {
@@ -99,19 +101,17 @@ export function fill2d(request: Fill2DRequest): Fill2DResult {
 
 interface Passes { ax: Axis, ad: Axis, grid: KnotGrid, z: Dec[][], rule: ExtrapolationRule, transform: TransformDefinition, P: number, F: DecimalCtor }
 
-/** Along x for every given d at every wanted x, then along d for every wanted x; values by "x|d", rounded to P. */
-function runPasses(r: Passes, wanted: Pick<Wanted, 'xs' | 'ds' | 'uniformX' | 'uniformD'>): Map<string, Dec> {
+/** Along x for every given d at every wanted x, then along d for every wanted x: values[k][j] at (xs[k], ds[k][j]), rounded to P. */
+function runPasses(r: Passes, wanted: Pick<Wanted, 'xs' | 'ds' | 'uniformX' | 'uniformD'>): Dec[][] {
   const { grid, z, rule, transform, P, F } = r
   const inner = P + GUARD_DIGITS
   const columns = grid.ds.map((_, j) => fillLine(r.ax, grid.xs, z.map(row => row[j]!), wanted.xs, wanted.uniformX, rule, inner, F))
-  const last = transform.id === 'none' ? P : inner
-  const values = new Map<string, Dec>()
-  wanted.xs.forEach((x, k) => {
-    const ds = wanted.ds[k]!
-    const line = fillLine(r.ad, grid.ds, columns.map(c => c[k]!), ds, wanted.uniformD, rule, last, F)
-    ds.forEach((d, j) => values.set(`${x.toString()}|${d.toString()}`, roundTo(transform.inverse(x, line[j]!), P)))
+  // without a transform the last pass rounds to P itself; with one, its values are mapped back and then rounded
+  const plain = transform.id === 'none'
+  return wanted.xs.map((x, k) => {
+    const line = fillLine(r.ad, grid.ds, columns.map(c => c[k]!), wanted.ds[k]!, wanted.uniformD, rule, plain ? P : inner, F)
+    return plain ? line : line.map(v => roundTo(transform.inverse(x, v), P))
   })
-  return values
 }
 
 interface Wanted {
@@ -120,8 +120,8 @@ interface Wanted {
   ds: Dec[][]
   uniformX: UniformGrid | null
   uniformD: UniformGrid | null
-  /** The output in the caller's order. */
-  order: { x: Dec, d: Dec }[]
+  /** The output in the caller's order, as indices [k, j] into xs and ds[k]. */
+  order: [number, number][]
   grid: Fill2DResult['spec']['grid']
 }
 
@@ -134,18 +134,22 @@ function outputPoints(F: DecimalCtor, request: Fill2DRequest): Wanted {
     if (typeof grid !== 'object') throw new EngineError('invalid-grid', 'The grid must be {x, d}, each a grid {from, to, step} or a list of points.')
     const x = resolveAxis(F, grid.x, 'x')
     const d = resolveAxis(F, grid.d, 'd')
-    const order = x.points.flatMap(xv => d.points.map(dv => ({ x: xv, d: dv })))
+    const order = x.points.flatMap((_, k) => d.points.map((__, j) => [k, j] as [number, number]))
     return { xs: x.points, ds: x.points.map(() => d.points), uniformX: x.uniform, uniformD: d.uniform, order, grid: { x: x.spec, d: d.spec } }
   }
-  const order = parsePairs(F, at)
+  const pairs = parsePairs(F, at)
   const byX = new Map<string, { x: Dec, ds: Map<string, Dec> }>()
-  for (const p of order) {
+  for (const p of pairs) {
     const entry = byX.get(p.x.toString()) ?? { x: p.x, ds: new Map<string, Dec>() }
     entry.ds.set(p.d.toString(), p.d)
     byX.set(p.x.toString(), entry)
   }
   const rows = [...byX.values()].sort((a, b) => a.x.cmp(b.x))
-  return { xs: rows.map(r => r.x), ds: rows.map(r => [...r.ds.values()].sort((a, b) => a.cmp(b))), uniformX: null, uniformD: null, order, grid: null }
+  const ds = rows.map(r => [...r.ds.values()].sort((a, b) => a.cmp(b)))
+  const index = new Map<string, [number, number]>()
+  rows.forEach((r, k) => ds[k]!.forEach((d, j) => index.set(`${r.x.toString()}|${d.toString()}`, [k, j])))
+  const order = pairs.map(p => index.get(`${p.x.toString()}|${p.d.toString()}`)!)
+  return { xs: rows.map(r => r.x), ds, uniformX: null, uniformD: null, order, grid: null }
 }
 
 /** Every given point read back through the same two passes, against its value rounded to the stated precision. */
@@ -153,8 +157,8 @@ function knotCheck(r: Passes): Fill2DResult['diagnostics'] {
   const { grid, P } = r
   const back = runPasses(r, { xs: grid.xs, ds: grid.xs.map(() => grid.ds), uniformX: null, uniformD: null })
   let worst = grid.xs[0]!.times(0)
-  grid.xs.forEach((x, i) => grid.ds.forEach((d, j) => {
-    const dev = back.get(`${x.toString()}|${d.toString()}`)!.minus(roundTo(grid.values[i]![j]!, P)).abs()
+  grid.values.forEach((row, i) => row.forEach((y, j) => {
+    const dev = back[i]![j]!.minus(roundTo(y, P)).abs()
     if (dev.gt(worst)) worst = dev
   }))
   const notes = [`Filled along x first (for each of the ${grid.ds.length} given d), then along d.`]

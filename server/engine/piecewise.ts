@@ -22,7 +22,8 @@ export interface ClosedForm {
   derivative(x: Dec, order: 1 | 2): Dec
   /** What the fit has to say beside the result (knots it left out, a calibration). */
   notes?: string[]
-  convergence?: ConvergenceReport
+  /** The convergence check of a method that converges to an ultimate forward rate (computed when the checks ask). */
+  convergence?: () => ConvergenceReport
 }
 
 /** Horner's rule: c0 + t (c1 + t (c2 + t c3)) (Horner 1819; Knuth, TAOCP vol. 2, 4.6.4). */

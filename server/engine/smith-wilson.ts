@@ -1,6 +1,6 @@
 import { decimalContext, exp, roundTo, type Dec, type DecimalCtor } from './decimal'
 import { ln } from './ln'
-import { solveDense } from './dense-solve'
+import { solveSymmetric } from './dense-solve'
 import { EngineError } from './errors'
 
 // Smith-Wilson, zero-coupon formulation (Smith and Wilson 2001; EIOPA, "Technical documentation of the methodology to
@@ -44,7 +44,7 @@ export function fitWilson(u: Dec[], lnP: Dec[], omega: Dec, alpha: Dec, digits: 
   const rhs = us.map((v, i) => exp(new S(lnP[i]!).plus(w.times(v))).minus(1))
   let b: Dec[]
   try {
-    b = solveDense(H, rhs)
+    b = solveSymmetric(H, rhs)
   }
   catch {
     throw new EngineError('calibration-failed', `The Smith-Wilson system has no unique solution for alpha = ${a.toString()}; check for repeated terms.`)
@@ -96,19 +96,27 @@ export function inContext(fit: WilsonFit, D: DecimalCtor): WilsonFit {
   }
 }
 
-/** G(t), G'(t) and G''(t), in the fit's decimal context (t in the same one). */
+/** e^{-alpha t} and sinh(alpha t), and the piece holding t. */
+function parts(fit: WilsonFit, t: Dec): { p: WilsonPiece, e: Dec, down: Dec, sinh: Dec } {
+  const e = exp(fit.alpha.times(t))
+  const down = new (t.constructor as DecimalCtor)(1).div(e)
+  return { p: pieceAt(fit, t), e, down, sinh: e.minus(down).div(2) }
+}
+
+/** G(t) = A + B t + C e^{-alpha t} + D sinh(alpha t), in the fit's decimal context (t in the same one). */
+export function wilsonValue(fit: WilsonFit, t: Dec): Dec {
+  const { p, down, sinh } = parts(fit, t)
+  return p.A.plus(p.B.times(t)).plus(p.C.times(down)).plus(p.D.times(sinh))
+}
+
+/** G(t), G'(t) and G''(t): G' = B - alpha C e^{-alpha t} + alpha D cosh(alpha t), G'' = alpha^2 (C e^{-alpha t} + D sinh(alpha t)). */
 export function wilsonG(fit: WilsonFit, t: Dec): { G: Dec, G1: Dec, G2: Dec } {
-  const { A, B, C, D } = pieceAt(fit, t)
+  const { p, e, down, sinh } = parts(fit, t)
   const a = fit.alpha
-  const e = exp(a.times(t))
-  const down = e.pow(-1) // e^{-alpha t}
-  const sinh = e.minus(down).div(2)
-  const cosh = e.plus(down).div(2)
-  // G = A + B t + C e^{-alpha t} + D sinh(alpha t); G' = B - alpha C e^{-alpha t} + alpha D cosh(alpha t); G'' = alpha^2 (C e^{-alpha t} + D sinh(alpha t))
-  const G = A.plus(B.times(t)).plus(C.times(down)).plus(D.times(sinh))
-  const G1 = B.minus(a.times(C).times(down)).plus(a.times(D).times(cosh))
-  const G2 = a.times(a).times(C.times(down).plus(D.times(sinh)))
-  return { G, G1, G2 }
+  const curve = p.C.times(down).plus(p.D.times(sinh))
+  const G = p.A.plus(p.B.times(t)).plus(curve)
+  const G1 = p.B.minus(a.times(p.C).times(down)).plus(a.times(p.D).times(e.plus(down).div(2)))
+  return { G, G1, G2: a.times(a).times(curve) }
 }
 
 /** Forward intensity f(t) = -d ln P/dt = omega - G'(t)/G(t). */
@@ -119,5 +127,5 @@ export function forwardIntensity(fit: WilsonFit, t: Dec): Dec {
 
 /** ln P(t) = -omega t + ln G(t), rounded to `digits`. */
 export function wilsonLnP(fit: WilsonFit, t: Dec, digits: number): Dec {
-  return roundTo(ln(wilsonG(fit, t).G).minus(fit.omega.times(t)), digits)
+  return roundTo(ln(wilsonValue(fit, t)).minus(fit.omega.times(t)), digits)
 }

@@ -11,6 +11,8 @@ const TOLERANCE = '0.0001'
 /** The alpha search runs on multiples of this step (the search tolerance): alpha is found to 6 decimals. */
 export const ALPHA_STEP = '0.000001'
 const ALPHA_CEILING = 100
+/** Digits the alpha search runs at before its answer is confirmed at the full precision. */
+const SEARCH_DIGITS = 30
 
 interface Setting { u: Dec[], lnP: Dec[], omega: Dec, cp: Dec, digits: number }
 
@@ -39,28 +41,37 @@ function gapAt(s: Setting, alpha: Dec): { fit: WilsonFit, forward: Dec, gap: Dec
  * 1 bp: alpha = 0.05 if it meets the criterion, else doubling from 0.1 until one does, then bisection on the grid between
  * the last alpha that failed and the first that met it (EIOPA technical documentation: alpha >= 0.05, convergence within
  * 1 bp at the convergence point). Bisection assumes the gap falls as alpha grows between the two, which it does on curves
- * seen in practice; the report shows the check one grid step below the result.
+ * seen in practice; the report shows the check one grid step below the result. The search runs at SEARCH_DIGITS and its
+ * answer is confirmed at the full precision (met at alpha, not met one step lower); if it is not, the search runs again at
+ * the full precision.
  */
 function calibrateAlpha(s: Setting, D: DecimalCtor): Dec {
   const step = new D(ALPHA_STEP)
   const tol = new D(TOLERANCE)
-  const meets = (k: number) => gapAt(s, step.times(k)).gap.lte(tol)
-  let lo = new D(ALPHA_FLOOR).div(step).toNumber()
-  if (meets(lo)) return step.times(lo)
-  let hi = lo * 2
-  while (!meets(hi)) {
-    lo = hi
-    hi *= 2
-    if (step.times(hi).gt(ALPHA_CEILING)) {
-      throw new EngineError('calibration-failed', `No alpha up to ${ALPHA_CEILING} brings the forward intensity at the convergence point within 1 basis point of ln(1 + UFR); give alpha or a later convergence point.`)
+  const floor = new D(ALPHA_FLOOR).div(step).toNumber()
+  const meets = (k: number, digits: number) => gapAt({ ...s, digits }, step.times(k)).gap.lte(tol)
+  const search = (digits: number): number => {
+    let lo = floor
+    if (meets(lo, digits)) return lo
+    let hi = lo * 2
+    while (!meets(hi, digits)) {
+      lo = hi
+      hi *= 2
+      if (step.times(hi).gt(ALPHA_CEILING)) {
+        throw new EngineError('calibration-failed', `No alpha up to ${ALPHA_CEILING} brings the forward intensity at the convergence point within 1 basis point of ln(1 + UFR); give alpha or a later convergence point.`)
+      }
     }
+    while (hi - lo > 1) {
+      const mid = Math.floor((lo + hi) / 2)
+      if (meets(mid, digits)) hi = mid
+      else lo = mid
+    }
+    return hi
   }
-  while (hi - lo > 1) {
-    const mid = Math.floor((lo + hi) / 2)
-    if (meets(mid)) hi = mid
-    else lo = mid
-  }
-  return step.times(hi)
+  let k = search(Math.min(SEARCH_DIGITS, s.digits))
+  const confirmed = meets(k, s.digits) && (k === floor || !meets(k - 1, s.digits))
+  if (!confirmed) k = search(s.digits)
+  return step.times(k)
 }
 
 function option(D: DecimalCtor, value: string | undefined, name: string, fallback: () => Dec): Dec {
@@ -140,7 +151,7 @@ export const smithWilson: MethodDefinition = {
         return order === 1 ? r.minus(at.omega) : G2.div(G).minus(r.times(r))
       },
       notes: left.length ? [`smith-wilson: ${left.length} given term(s) beyond the last liquid point ${s.llp.toString()} (${left.map(t => t.toString()).join(', ')}) were not used.`] : [],
-      convergence: report(s, alpha, check, D),
+      convergence: () => report(s, alpha, check, D),
     }
     // x[0] is t = 0 (the pipeline anchors curve methods there)
     return { breaks: [x[0]!, ...s.u], coefs: [], endValue: s.lnP[s.lnP.length - 1]!, closedForm }
