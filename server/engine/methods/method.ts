@@ -19,6 +19,11 @@ export interface MethodDefinition extends Omit<MethodListing, 'appliesTo' | 'ext
    * 'required' accepts only 'method' (or 'error') beyond the knots. Absent: the method has none and 'method' is refused.
    */
   extension?: 'optional' | 'required'
+  /**
+   * The fitted values are an affine function of the given y at fixed x (every operation on y is a sum or a product by a
+   * number that does not depend on y): a two-way fill may then fill a whole axis by one set of weights.
+   */
+  affine?: true
   /** Completes options that depend on the data (a calibration) before the fit; the spec records what it returns. */
   calibrate?(x: Dec[], y: Dec[], options: Record<string, string>, D: DecimalCtor): Record<string, string>
   /** Fit pieces through sorted, distinct x with values y (already on the method's scale). Options are resolved. */

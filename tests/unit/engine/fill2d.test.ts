@@ -54,6 +54,15 @@ describe('fill2d requests', () => {
     expect(onGrid.spec.methods).toEqual({ x: { method: 'pchip', options: {} }, d: { method: 'pchip', options: {} } })
   })
 
+  it('fills an affine method along d by one set of weights (on a grid) with the same digits as line by line (pairs)', () => {
+    for (const [method, options] of [['cubic-not-a-knot', {}], ['cubic-clamped', { startSlope: '0.0002', endSlope: '-0.001' }], ['quadratic', { condition: 'right-slope', slope: '0.0003' }]] as const) {
+      const request: Fill2DRequest = { ...base, method, options, grid: { x: ['21', '33.3', '59'], d: ['0.2', '1', '2.5', '4.75'] } }
+      const onGrid = fill2d(request)
+      const pairs = fill2d({ ...request, grid: undefined, at: onGrid.points.map(p => ({ x: p.x, d: p.d })) })
+      expect(pairs.points, method).toEqual(onGrid.points)
+    }
+  })
+
   it('refuses knots that do not fill a rectangular grid, naming what is missing or doubled', () => {
     const missing = base.knots.filter(k => !(k.x === '37' && k.d === '2'))
     expect(engineErrorOf(() => fill2d({ ...base, knots: missing })).message)
