@@ -149,7 +149,7 @@ curveRow('smith-wilson', 'alpha 0.1, 121 terms', sw, 3)
   // calibration alone on a curve of 20 annual terms (auto alpha: about 20 solves of the Wilson system)
   const twenty = { ...sw, knots: knots.filter((_, i) => i > 0 && i % 6 === 0).slice(0, 20), options: { ufr: '0.035' } }
   const t = time(() => fitRequest(twenty, false), 3)
-  rows.push(['smith-wilson', `auto alpha, 20 terms: fit only ${t.toFixed(1)} ms`, '-', '-', '-', '-', '-'])
+  rows.push(['smith-wilson', 'auto alpha, 20 terms: fit', t.toFixed(1), '-', '-', '-', '-'])
 }
 {
   // two-way: knots every 7 in x (0..119, 18 values) and every 4 in d (0..24, 7 values), filled to 120 x 25 = 3,000 points

@@ -84,7 +84,9 @@ function curvature(pp: PiecewisePolynomial, precision: number): CurvatureReport 
     prev = { x: sample.x, s }
   }
   return {
-    basis: 'second derivative of the fitted pieces at both ends of each piece, on the interpolated (transformed) scale',
+    basis: closed
+      ? 'second derivative of the fitted closed form at every knot, on the interpolated (transformed) scale'
+      : 'second derivative of the fitted pieces at both ends of each piece, on the interpolated (transformed) scale',
     count: at.length,
     at: at.slice(0, LIST_LIMIT),
   }
