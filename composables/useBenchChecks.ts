@@ -7,7 +7,7 @@ const fx = (x: string) => String(Number(Number(x).toPrecision(6)))
 const spans = (at: Span[], max = 4) => at.slice(0, max).map(s => (s.from === s.to ? fx(s.from) : `${fx(s.from)}–${fx(s.to)}`)).join(', ') + (at.length > max ? ', …' : '')
 const short = (v: string) => String(Number(Number(v).toPrecision(3)))
 
-/** The checks of DOMAIN.md section 4, each with a plain-language line on what it means and why it matters. */
+/** The checks of docs/domain.md#checks, each with a plain-language line on what it means and why it matters. */
 export function checkRows(curve: boolean): CheckRow[] {
   const rows: CheckRow[] = [
     {

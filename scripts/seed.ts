@@ -1,4 +1,4 @@
-// Seeds the invented demo scenario (DOMAIN.md section 7) into an EMPTY database only.
+// Seeds the invented demo scenario (docs/domain.md#demo) into an EMPTY database only.
 import { createSequelize } from '../server/database/connection'
 import { seedPeople, DEMO_PASSWORD } from './seed/people'
 import { seedTables } from './seed/tables'

@@ -1,4 +1,4 @@
-// The one permission table (DOMAIN.md section 5). Server handlers call
+// The one permission table (docs/domain.md#permissions). Server handlers call
 // requirePermission(); pages and controls call can(). Nothing else decides.
 
 export const ROLES = ['admin', 'actuary', 'analyst', 'auditor'] as const
@@ -27,10 +27,6 @@ const GRANTS: Record<Role, readonly Permission[]> = {
   actuary: ['tables:read', 'tables:edit', 'fills:run', 'reviews:submit', 'reviews:decide', 'exports:download'],
   analyst: ['tables:read', 'tables:edit', 'fills:run', 'reviews:submit'],
   auditor: ['tables:read', 'exports:download'],
-}
-
-export function isRole(value: unknown): value is Role {
-  return typeof value === 'string' && (ROLES as readonly string[]).includes(value)
 }
 
 export function can(role: Role | null | undefined, permission: Permission): boolean {

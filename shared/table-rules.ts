@@ -3,7 +3,7 @@ import type { TableKind } from './tables'
 
 export interface RuleFinding { severity: 'error' | 'warning'; message: string }
 
-// Range rules on stored per-unit values (DOMAIN.md section 2): probabilities lie in [0, 1];
+// Range rules on stored per-unit values (docs/domain.md#glossary): probabilities lie in [0, 1];
 // spot rates outside -5%..25% are unusual (common practice), not impossible.
 export function checkValue(kind: TableKind, perUnit: string): RuleFinding | null {
   const v = canonicalDecimal(perUnit)

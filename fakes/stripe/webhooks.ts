@@ -12,7 +12,11 @@ export interface WebhookOptions {
   log: (line: string) => void
 }
 
-export interface Delivery { event: string; type: string; url: string; attempt: number; status: number | null; error: string | null; at: string }
+export interface Delivery {
+  event: string; type: string; url: string; attempt: number; status: number | null; error: string | null; at: string
+  /** When the next attempt is due after this one (ms), or null when there is none (delivered, or attempts used up). */
+  retryInMs: number | null
+}
 
 /** Stripe's scheme: `t=<unix>,v1=<hex HMAC-SHA256(secret, "<t>.<payload>")>`. The time is real time, not the fake clock. */
 export function signatureHeader(payload: string, secret: string, t = Math.floor(Date.now() / 1000)): string {
@@ -58,11 +62,12 @@ export class WebhookDispatcher {
     } catch (e) {
       error = (e as Error).message
     }
-    this.deliveries.push({ event: event.id, type: event.type, url, attempt, status, error, at: new Date().toISOString() })
-    if (this.deliveries.length > 1000) this.deliveries.splice(0, this.deliveries.length - 1000)
     const ok = status !== null && status >= 200 && status < 300
+    const retryInMs = ok || attempt >= this.o.maxAttempts ? null : this.o.baseDelayMs * 2 ** (attempt - 1)
+    this.deliveries.push({ event: event.id, type: event.type, url, attempt, status, error, at: new Date().toISOString(), retryInMs })
+    if (this.deliveries.length > 1000) this.deliveries.splice(0, this.deliveries.length - 1000)
     this.o.log(`webhook ${event.type} ${event.id} → ${url} attempt ${attempt}: ${ok ? status : error ?? status}`)
-    if (ok || attempt >= this.o.maxAttempts) {
+    if (retryInMs === null) {
       if (ok) {
         const stored = this.o.store.get('events', event.id)
         if (stored) stored.pending_webhooks = Math.max(0, stored.pending_webhooks - 1)
@@ -70,7 +75,7 @@ export class WebhookDispatcher {
       this.done()
       return
     }
-    const timer = setTimeout(() => { this.timers.delete(timer); void this.attempt(event, url, secret, attempt + 1) }, this.o.baseDelayMs * 2 ** (attempt - 1))
+    const timer = setTimeout(() => { this.timers.delete(timer); void this.attempt(event, url, secret, attempt + 1) }, retryInMs)
     this.timers.add(timer)
   }
 

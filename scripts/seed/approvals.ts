@@ -1,5 +1,5 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize'
-import { appendAuditEvent } from '../../server/lib/audit-writer'
+import { appendAuditEvent } from '../../server/services/audit-writer'
 import { fill } from '../../server/engine/index'
 import { gridToEngine } from '../../server/services/fill-request'
 import type { SeededPeople } from './people'

@@ -1,12 +1,12 @@
 import type { Sequelize, Transaction } from 'sequelize'
 import { QueryTypes } from 'sequelize'
 import { hashPassword } from '../../server/lib/password'
-import { appendAuditEvent } from '../../server/lib/audit-writer'
+import { appendAuditEvent } from '../../server/services/audit-writer'
 import type { Role } from '../../shared/permissions'
 
 export const DEMO_PASSWORD = 'knotwork-demo-2026'
 
-// Invented organisations and people (DOMAIN.md section 7). Felix belongs to both.
+// Invented organisations and people (docs/domain.md#demo). Felix belongs to both.
 export const DEMO_ORGS = [
   { slug: 'larkspur-mutual', name: 'Larkspur Mutual' },
   { slug: 'fenwick-rowe', name: 'Fenwick & Rowe Consulting' },

@@ -1,10 +1,10 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize'
-import { appendAuditEvent } from '../../server/lib/audit-writer'
+import { appendAuditEvent } from '../../server/services/audit-writer'
 import { pointsContentHash } from '../../server/lib/points-hash'
 import { D, canonicalDecimal } from '../../shared/decimal-text'
 import type { SeededPeople } from './people'
 
-// Invented demo tables (DOMAIN.md section 7). Values computed with decimal.js, stored as decimal text.
+// Invented demo tables (docs/domain.md#demo). Values computed with decimal.js, stored as decimal text.
 const INVENTED = 'Invented demo data for the Knotwork demo; not from any real study or market.'
 type Point = { x: string; y: string }
 

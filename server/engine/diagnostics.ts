@@ -7,7 +7,7 @@ import type { Compounding, CurvatureReport, Diagnostics, ForwardReport, Located,
 
 const LIST_LIMIT = 20
 
-/** Shape, range and curve checks of a fill (DOMAIN.md section 4). Kept out of the timed fit-and-evaluate path. */
+/** Shape, range and curve checks of a fill (docs/domain.md#checks). Kept out of the timed fit-and-evaluate path. */
 export function computeDiagnostics(core: CoreFill): Diagnostics {
   const order = ascendingOrder(core)
   const xs = order.map(k => core.points.xs[k]!)

@@ -20,11 +20,6 @@ export function pow10(k: number): bigint {
   return POW10[k]!
 }
 
-/** Digits after the point (0 for integers). */
-export function placesOf(d: Dec): number {
-  return d.decimalPlaces()
-}
-
 const WORD = 10000000n
 
 /**

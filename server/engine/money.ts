@@ -5,7 +5,7 @@ import type { MoneyFigure, MoneyImpact } from './types'
 
 const RADIX = 100000
 
-/** How much the fill moves the money (DOMAIN.md section 4): life expectancy and annuities for q_x, PVs and durations for curves. */
+/** How much the fill moves the money (docs/domain.md#checks): life expectancy and annuities for q_x, PVs and durations for curves. */
 export function computeMoney(core: CoreFill): MoneyImpact {
   const kind = core.spec.kind
   if (kind === 'mortality') return mortalityMoney(core)

@@ -49,10 +49,6 @@ export function hornerDerivative(c: Dec[], t: Dec, order: number): Dec {
   return horner(reduced, t)
 }
 
-export function pieceCount(pp: PiecewisePolynomial): number {
-  return pp.coefs.length
-}
-
 /** Slope of the first piece at the first knot and of the last piece at the last knot. */
 export function endSlopes(pp: PiecewisePolynomial): { left: Dec, right: Dec } {
   const n = pp.coefs.length

@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
-import type { BillingDto, BillingInvoiceDto } from '#shared/types/api'
-import { BillingInvoice, type BillingAccount, type Organisation } from '../database/models'
+import type { BillingDto, BillingInvoiceDto, BillingStatusDto } from '#shared/types/api'
+import { BillingAccount, BillingInvoice, type Organisation } from '../database/models'
 import { PLAN, TRIAL_DAYS, planPriceId } from './billing-plan'
 import { syncBillingAccount } from './billing-sync'
 import { ensureBillingAccount, seatUsage } from './seats'
@@ -105,3 +105,9 @@ function toInvoiceDto(i: BillingInvoice): BillingInvoiceDto {
 
 /** Billing states that need the administrator's attention (a payment failed). */
 export const ATTENTION_STATUSES = ['past_due', 'unpaid', 'incomplete']
+
+/** The stored billing status, for the failed-payment banner (a local read, no Stripe call). */
+export async function billingStatus(orgId: string): Promise<BillingStatusDto> {
+  const status = (await BillingAccount.findByPk(orgId))?.status ?? 'not_started'
+  return { status, attention: ATTENTION_STATUSES.includes(status) }
+}

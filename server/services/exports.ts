@@ -1,27 +1,28 @@
 import type { H3Event } from 'h3'
 import { QueryTypes } from 'sequelize'
-import { canonicalDecimal } from '#shared/decimal-text'
+import { isUuid } from '#shared/schemas/route-params'
 import { SIGNED_FORMAT, canonicalBytes, contentSha256, readWorkbookCells, signatureSheetField, signBytes, verifyWorkbookCells, writeSignedWorkbook, type Json, type Pair, type Person, type SignedContent } from '../lib/signing'
 import { guardXlsxZip } from '../lib/import/zip-guard'
 import { ImportRefused } from '../lib/import/limits'
 import type { OrgAccess } from '../utils/auth'
 import type { ExportVerdictDto } from '#shared/types/exports'
+import type { ReadTableSummaryDto } from '#shared/types/read-tokens'
 import { activeSigningKey, publicKeyById } from './signing-keys'
+import { findTable, findVersion } from './tables'
+import { readPoints, type PointTable } from './points-store'
 
 type Row = Record<string, unknown>
 interface OrgRef { id: string, slug: string, name: string }
 const person = (r: Row, p: string): Person | null => (r[`${p}_email`] ? { name: r[`${p}_name`] as string, email: r[`${p}_email`] as string } : null)
 const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null)
-const pairs = (rows: { x: string; y: string }[]): Pair[] => rows.map(r => [canonicalDecimal(r.x), canonicalDecimal(r.y)])
 
-async function pointsOf(table: 'version_points' | 'version_fill_points', versionId: string): Promise<Pair[]> {
-  return pairs(await useDb().query<{ x: string; y: string }>(`SELECT x::text AS x, y::text AS y FROM ${table} WHERE version_id = :versionId ORDER BY x`,
-    { replacements: { versionId }, type: QueryTypes.SELECT }))
+async function pointsOf(table: PointTable, versionId: string): Promise<Pair[]> {
+  return (await readPoints(versionId, undefined, table)).map(p => [p.x, p.y])
 }
 
 /** The content object of a signed-off (or since withdrawn) version, exactly as it will be signed. */
 async function signedContent(org: OrgRef, tableId: string, number: number, keyId: string): Promise<SignedContent> {
-  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('version')
+  const { id } = await findVersion(org.id, tableId, number)
   const people = ['au:author_id', 'fb:filled_by', 'sb:submitted_by', 'ab:approved_by'].map((s) => {
     const [p, col] = s.split(':')
     return { join: `LEFT JOIN users ${p} ON ${p}.id = v.${col}`, cols: `${p}.name AS ${p}_name, ${p}.email AS ${p}_email` }
@@ -29,11 +30,10 @@ async function signedContent(org: OrgRef, tableId: string, number: number, keyId
   const [r] = await useDb().query<Row>(`
     SELECT v.*, t.name AS table_name, t.kind, t.axis, t.axis_unit, t.value_unit, ${people.map(p => p.cols).join(', ')}
     FROM table_versions v JOIN rate_tables t ON t.id = v.table_id ${people.map(p => p.join).join(' ')}
-    WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number`,
-  { replacements: { orgId: org.id, tableId, number }, type: QueryTypes.SELECT })
+    WHERE v.id = :id`,
+  { replacements: { id }, type: QueryTypes.SELECT })
   if (!r) notFound('version')
   if (r.status !== 'approved' && r.status !== 'retired') throw apiError(409, 'not-signed-off', 'Only a signed-off version can be exported with a signature.')
-  const id = r.id as string
   return {
     format: SIGNED_FORMAT,
     organisation: { slug: org.slug, name: org.name },
@@ -82,7 +82,7 @@ export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: 
   } else {
     const c = verdict.content
     const [now] = await useDb().query<Row>(`SELECT v.status, v.content_hash, s.number AS superseded_number FROM table_versions v LEFT JOIN table_versions s ON s.id = v.superseded_by
-      WHERE v.org_id = :orgId AND v.id = :id`, { replacements: { orgId: access.org.id, id: /^[0-9a-f-]{36}$/i.test(c.version.id) ? c.version.id : '00000000-0000-0000-0000-000000000000' }, type: QueryTypes.SELECT })
+      WHERE v.org_id = :orgId AND v.id = :id`, { replacements: { orgId: access.org.id, id: isUuid(c.version.id) ? c.version.id : '00000000-0000-0000-0000-000000000000' }, type: QueryTypes.SELECT })
     const status = now?.status as string | undefined
     const kind = status === 'approved' ? 'genuine-current' : status === 'retired' ? 'genuine-superseded' : 'genuine-unknown-version'
     const messages = {
@@ -109,7 +109,7 @@ function summary(c: SignedContent): NonNullable<ExportVerdictDto['signed']> {
  */
 export async function signedOffPayload(event: H3Event, org: OrgRef, tableId: string, options: { number?: number, holds?: string } = {}):
 Promise<{ tag: string, payload: { content: SignedContent, signature: string, keyId: string } | null }> {
-  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('table')
+  await findTable(org.id, tableId)
   const [row] = await useDb().query<{ number: number }>(`SELECT number FROM table_versions WHERE org_id = :orgId AND table_id = :tableId
     AND ${options.number === undefined ? 'status = \'approved\'' : 'number = :number AND status IN (\'approved\', \'retired\')'}`,
   { replacements: { orgId: org.id, tableId, number: options.number ?? null }, type: QueryTypes.SELECT })
@@ -119,4 +119,16 @@ Promise<{ tag: string, payload: { content: SignedContent, signature: string, key
   const tag = `W/"${contentSha256({ ...content, signedAt: '' })}"`
   if (options.holds?.split(',').map(t => t.trim()).includes(tag)) return { tag, payload: null }
   return { tag, payload: { content, signature: signBytes(canonicalBytes(content), key.privateKey), keyId: key.kid } }
+}
+
+/** The organisation's tables that have a signed-off version, as the read API lists them (only `tableIds` when given). */
+export async function listSignedOffTables(orgId: string, tableIds: string[] | null): Promise<ReadTableSummaryDto[]> {
+  const rows = await useDb().query<Row>(`
+    SELECT t.id, t.name, t.kind, t.axis, t.axis_unit, t.value_unit, v.number, v.content_hash, v.approved_at, v.fill_spec IS NOT NULL AS filled
+    FROM rate_tables t JOIN table_versions v ON v.table_id = t.id AND v.status = 'approved'
+    WHERE t.org_id = :orgId ${tableIds ? 'AND t.id IN (:tableIds)' : ''} ORDER BY t.name`, { replacements: { orgId, tableIds }, type: QueryTypes.SELECT })
+  return rows.map(r => ({
+    id: r.id as string, name: r.name as string, kind: r.kind as string, axis: r.axis as string, axisUnit: r.axis_unit as string, valueUnit: r.value_unit as string,
+    signedOff: { number: r.number as number, contentHash: r.content_hash as string, approvedAt: iso(r.approved_at), filled: r.filled as boolean },
+  }))
 }

@@ -1,28 +1,19 @@
 import { performance } from 'node:perf_hooks'
-import { QueryTypes, type Transaction } from 'sequelize'
+import { QueryTypes } from 'sequelize'
 import type { H3Event } from 'h3'
 import { compareAsync, fill, EngineError, METHODS, TRANSFORM_LISTING, ENGINE_VERSION, REVIEW_CAUTION } from '../engine/index'
 import type { FillResult } from '../engine/types'
 import type { OrgAccess } from '../utils/auth'
 import type { CompareInput, SaveFillInput } from '#shared/schemas/fills'
 import type { CompareResponseDto, FillMethodsDto, SavedFillDto, StoredFillSpec } from '#shared/types/fills'
-import type { VersionStatus } from '#shared/tables'
-import { findTable } from './versions'
-import { readPoints } from './points-store'
+import { findTable, findVersion } from './tables'
+import { insertPoints, readPoints } from './points-store'
 import { buildFillRequest } from './fill-request'
 
 type Row = Record<string, unknown>
 
 export function fillMethods(): FillMethodsDto {
   return { methods: [...METHODS], transforms: [...TRANSFORM_LISTING], engineVersion: ENGINE_VERSION, caution: REVIEW_CAUTION }
-}
-
-async function versionRow(orgId: string, tableId: string, number: number, t?: Transaction, lock = false) {
-  const [row] = await useDb().query<Row>(
-    `SELECT id, status, lock_version, content_hash FROM table_versions WHERE org_id = :orgId AND table_id = :tableId AND number = :number${lock ? ' FOR UPDATE' : ''}`,
-    { replacements: { orgId, tableId, number }, type: QueryTypes.SELECT, transaction: t })
-  if (!row) notFound('version')
-  return { id: row.id as string, status: row.status as VersionStatus, lockVersion: row.lock_version as number, contentHash: row.content_hash as string }
 }
 
 /** An engine refusal is the user's to fix: 400 with the engine's own words. */
@@ -36,7 +27,7 @@ export async function runCompare(access: OrgAccess, tableId: string, number: num
   const report = (done: number) => { if (input.runId) setProgress(access.user.id, input.runId, done, input.methods.length) }
   report(0)
   const table = await findTable(access.org.id, tableId)
-  const version = await versionRow(access.org.id, tableId, number)
+  const version = await findVersion(access.org.id, tableId, number)
   const knots = await readPoints(version.id)
   const base = { knots, kind: table.kind }
   const requests = input.methods.map(m => buildFillRequest(base, input, m))
@@ -62,18 +53,6 @@ export async function runCompare(access: OrgAccess, tableId: string, number: num
   return { result, engineMs, knots, kind: table.kind, axis: table.axis, status: version.status, lockVersion: version.lockVersion, pointCount: knots.length }
 }
 
-/** Writes a fill's values (NUMERIC from the engine's decimal text) in one statement per 10,000 points. */
-async function insertFillPoints(versionId: string, points: { x: string, y: string }[], t: Transaction) {
-  await useDb().query('DELETE FROM version_fill_points WHERE version_id = :versionId', { replacements: { versionId }, transaction: t })
-  for (let i = 0; i < points.length; i += 10_000) {
-    const slice = points.slice(i, i + 10_000)
-    await useDb().query(
-      `INSERT INTO version_fill_points (version_id, x, y)
-       SELECT :versionId, x::numeric, y::numeric FROM unnest(string_to_array(:xs, ','), string_to_array(:ys, ',')) AS p(x, y)`,
-      { replacements: { versionId, xs: slice.map(p => p.x).join(','), ys: slice.map(p => p.y).join(',') }, transaction: t })
-  }
-}
-
 /**
  * Makes one method the draft's fill. The server re-runs the engine on the stored points (client values are never taken),
  * under the optimistic lock: a stale lockVersion, or a version that is no longer a draft, gets 409 and changes nothing.
@@ -81,7 +60,7 @@ async function insertFillPoints(versionId: string, points: { x: string, y: strin
 export async function saveFill(event: H3Event, access: OrgAccess, tableId: string, number: number, input: SaveFillInput): Promise<SavedFillDto> {
   const table = await findTable(access.org.id, tableId)
   await inTransaction(async (t) => {
-    const version = await versionRow(access.org.id, tableId, number, t, true)
+    const version = await findVersion(access.org.id, tableId, number, { transaction: t, lock: true })
     if (version.status !== 'draft') throw apiError(409, 'not-a-draft', 'Only a working draft takes a fill; start a new draft from this version.')
     if (version.lockVersion !== input.lockVersion) {
       throw apiError(409, 'draft-conflict', 'This draft changed after you opened the bench (points or fill saved by someone). Run the comparison again, then choose.', { lockVersion: version.lockVersion })
@@ -97,7 +76,8 @@ export async function saveFill(event: H3Event, access: OrgAccess, tableId: strin
          fill_diagnostics = :diagnostics::jsonb, fill_money = :money::jsonb, filled_by = :userId, filled_at = now(), updated_at = now()
        WHERE id = :id`,
       { replacements: { id: version.id, spec: JSON.stringify(spec), rationale: input.rationale, diagnostics: JSON.stringify(result.diagnostics), money: JSON.stringify(result.money), userId: access.user.id }, transaction: t })
-    await insertFillPoints(version.id, result.points, t)
+    await useDb().query('DELETE FROM version_fill_points WHERE version_id = :id', { replacements: { id: version.id }, transaction: t })
+    await insertPoints(version.id, result.points, t, 'version_fill_points')
     await audit(event, {
       orgId: access.org.id, action: 'version.fill.save', objectType: 'table_version', objectId: version.id,
       detail: { tableId, number, method: result.spec.method, options: result.spec.options, transform: result.spec.transform, label, points: result.points.length, engineVersion: result.spec.engineVersion, pointsHash: version.contentHash, lockVersion: version.lockVersion + 1, rationale: input.rationale },
@@ -108,14 +88,14 @@ export async function saveFill(event: H3Event, access: OrgAccess, tableId: strin
 
 /** The version's chosen fill (null when none), optionally with its values. */
 export async function getFill(orgId: string, tableId: string, number: number, withPoints: boolean): Promise<SavedFillDto | null> {
-  await findTable(orgId, tableId)
-  const [row] = await useDb().query<Row>(
+  const { id } = await findVersion(orgId, tableId, number)
+  const [found] = await useDb().query<Row>(
     `SELECT v.id, v.fill_spec, v.fill_rationale, v.fill_diagnostics, v.fill_money, v.filled_at, v.content_hash, v.lock_version,
             u.id AS user_id, u.name AS user_name, (SELECT count(*)::int FROM version_fill_points f WHERE f.version_id = v.id) AS point_count
      FROM table_versions v LEFT JOIN users u ON u.id = v.filled_by
-     WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number`,
-    { replacements: { orgId, tableId, number }, type: QueryTypes.SELECT })
-  if (!row) notFound('version')
+     WHERE v.id = :id`,
+    { replacements: { id }, type: QueryTypes.SELECT })
+  const row = found!
   if (!row.fill_spec) return null
   const spec = row.fill_spec as StoredFillSpec
   const dto: SavedFillDto = {
@@ -131,9 +111,7 @@ export async function getFill(orgId: string, tableId: string, number: number, wi
     lockVersion: row.lock_version as number,
   }
   if (withPoints) {
-    const points = await useDb().query<{ x: string, y: string }>('SELECT f.x::text AS x, f.y::text AS y FROM version_fill_points f WHERE f.version_id = :id ORDER BY f.x',
-      { replacements: { id: row.id }, type: QueryTypes.SELECT })
-    dto.points = points
+    dto.points = await readPoints(id, undefined, 'version_fill_points')
   }
   return dto
 }

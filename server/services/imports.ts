@@ -1,3 +1,4 @@
+import { isUuid } from '#shared/schemas/route-params'
 import { QueryTypes, type Transaction } from 'sequelize'
 import type { H3Event } from 'h3'
 import type { OrgAccess } from '../utils/auth'
@@ -42,7 +43,7 @@ export async function createImport(event: H3Event, access: OrgAccess, fileName: 
 
 /** The caller's own, unexpired import in this organisation; 404 for anyone else's. */
 async function loadImport(access: OrgAccess, id: string, t?: Transaction, lock = false): Promise<ImportRow> {
-  if (!/^[0-9a-f-]{36}$/i.test(id)) notFound('upload')
+  if (!isUuid(id)) notFound('upload')
   const [row] = await useDb().query<ImportRow>(
     `SELECT id, file_name, file_kind, size_bytes, sheets, created_at, expires_at FROM imports
      WHERE id = :id AND org_id = :orgId AND owner_id = :ownerId AND expires_at > now()${lock ? ' FOR UPDATE' : ''}`,

@@ -1,3 +1,4 @@
+import { isUuid } from '#shared/schemas/route-params'
 import type { H3Event } from 'h3'
 import { Op, type Transaction } from 'sequelize'
 import type { Role } from '#shared/permissions'
@@ -64,7 +65,7 @@ export async function createInvitation(event: H3Event, access: OrgAccess, email:
 }
 
 async function openInvitation(orgId: string, id: string, t: Transaction): Promise<Invitation> {
-  const invitation = /^[0-9a-f-]{36}$/i.test(id) ? await Invitation.findOne({ where: { id, orgId, ...open }, transaction: t, lock: t.LOCK.UPDATE }) : null
+  const invitation = isUuid(id) ? await Invitation.findOne({ where: { id, orgId, ...open }, transaction: t, lock: t.LOCK.UPDATE }) : null
   if (!invitation) notFound('open invitation')
   return invitation
 }

@@ -1,7 +1,8 @@
 import type { H3Event } from 'h3'
-import { Op, type Transaction } from 'sequelize'
+import type { Transaction } from 'sequelize'
 import type { Role } from '#shared/permissions'
-import { Membership } from '../database/models'
+import type { MemberDto } from '#shared/types/api'
+import { Membership, User } from '../database/models'
 import type { OrgAccess } from '../utils/auth'
 
 /** The target membership, with every admin row of the organisation locked so "last admin" cannot race. */
@@ -41,6 +42,10 @@ export async function removeMember(event: H3Event, access: OrgAccess, userId: st
   await revokeSessions(removed.userId, `removed from ${access.org.slug}`)
 }
 
-export async function isMember(orgId: string, userId: string, t?: Transaction): Promise<boolean> {
-  return !!(await Membership.findOne({ where: { orgId, userId: { [Op.eq]: userId } }, transaction: t }))
+/** The organisation's members, by name. */
+export async function listMembers(orgId: string): Promise<MemberDto[]> {
+  const rows = await Membership.findAll({ where: { orgId }, include: [{ model: User, as: 'user' }] })
+  return rows
+    .map(m => ({ userId: m.userId, name: m.user!.name, email: m.user!.email, role: m.role, joinedAt: m.createdAt.toISOString() }))
+    .sort((a, b) => a.name.localeCompare(b.name))
 }

@@ -1,26 +1,26 @@
 import { QueryTypes, type Transaction } from 'sequelize'
+import { canonicalDecimal } from '#shared/decimal-text'
 import type { PointDto } from '#shared/types/tables'
 
-/** Writes a version's points in one statement per 10,000 points (NUMERIC from decimal text, never floats). */
-export async function insertPoints(versionId: string, points: PointDto[], t: Transaction): Promise<void> {
+/** The two point tables: a version's given points and its chosen fill's values (both NUMERIC, x unique per version). */
+export type PointTable = 'version_points' | 'version_fill_points'
+
+/** Writes points in one statement per 10,000 (NUMERIC from decimal text, never floats). */
+export async function insertPoints(versionId: string, points: PointDto[], t: Transaction, table: PointTable = 'version_points'): Promise<void> {
   for (let i = 0; i < points.length; i += 10_000) {
     const slice = points.slice(i, i + 10_000)
     await useDb().query(
-      `INSERT INTO version_points (version_id, x, y)
+      `INSERT INTO ${table} (version_id, x, y)
        SELECT :versionId, x::numeric, y::numeric FROM unnest(string_to_array(:xs, ','), string_to_array(:ys, ',')) AS p(x, y)`,
       { replacements: { versionId, xs: slice.map(p => p.x).join(','), ys: slice.map(p => p.y).join(',') }, transaction: t })
   }
 }
 
-export async function readPoints(versionId: string, t?: Transaction): Promise<PointDto[]> {
+/** Points in ascending x, in canonical decimal text. */
+export async function readPoints(versionId: string, t?: Transaction, table: PointTable = 'version_points'): Promise<PointDto[]> {
   const rows = await useDb().query<{ x: string; y: string }>(
-    'SELECT x::text AS x, y::text AS y FROM version_points WHERE version_id = :versionId ORDER BY version_points.x',
+    // order by the NUMERIC column, not the text alias (which would put 100 before 55)
+    `SELECT p.x::text AS x, p.y::text AS y FROM ${table} p WHERE p.version_id = :versionId ORDER BY p.x`,
     { replacements: { versionId }, type: QueryTypes.SELECT, transaction: t })
-  return rows.map(r => ({ x: trimZeros(r.x), y: trimZeros(r.y) }))
-}
-
-function trimZeros(v: string): string {
-  if (!v.includes('.')) return v === '-0' ? '0' : v
-  const s = v.replace(/0+$/, '').replace(/\.$/, '')
-  return s === '-0' ? '0' : s
+  return rows.map(r => ({ x: canonicalDecimal(r.x), y: canonicalDecimal(r.y) }))
 }

@@ -1,8 +1,8 @@
-import { QueryTypes, type Transaction } from 'sequelize'
+import { QueryTypes } from 'sequelize'
 import { can } from '#shared/permissions'
 import type { PersonRef, ReviewQueueItemDto, ReviewStateDto, VersionCommentDto } from '#shared/types/review'
-import type { VersionStatus } from '#shared/tables'
 import type { OrgAccess } from '../utils/auth'
+import { findVersion, type VersionRecord } from './tables'
 
 type Row = Record<string, unknown>
 const person = (r: Row, p: string): PersonRef | null => (r[`${p}_id`] ? { id: r[`${p}_id`] as string, name: r[`${p}_name`] as string, email: r[`${p}_email`] as string } : null)
@@ -10,26 +10,9 @@ const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null)
 const join = (col: string, p: string) => `LEFT JOIN users ${p} ON ${p}.id = v.${col}`
 const cols = (p: string) => `${p}.id AS ${p}_id, ${p}.name AS ${p}_name, ${p}.email AS ${p}_email`
 
-export interface VersionRow {
-  id: string; number: number; status: VersionStatus; table_id: string; table_name: string
-  author_id: string | null; filled_by: string | null; submitted_by: string | null; has_fill: boolean
-}
-
-/** The version (row-locked when a transaction is given), or 404 for a missing one or another organisation's. */
-export async function findVersion(orgId: string, tableId: string, number: number, t?: Transaction): Promise<VersionRow> {
-  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('version')
-  const [row] = await useDb().query<VersionRow>(`
-    SELECT v.id, v.number, v.status, v.table_id, rt.name AS table_name, v.author_id, v.filled_by, v.submitted_by,
-           (v.fill_spec IS NOT NULL AND EXISTS (SELECT 1 FROM version_fill_points f WHERE f.version_id = v.id)) AS has_fill
-    FROM table_versions v JOIN rate_tables rt ON rt.id = v.table_id
-    WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number ${t ? 'FOR UPDATE OF v' : ''}`,
-  { replacements: { orgId, tableId, number }, type: QueryTypes.SELECT, transaction: t })
-  return row ?? notFound('version')
-}
-
 /** Maker-checker: the people who made this version (author, filler, submitter) may not sign it off. */
-export function makers(v: Pick<VersionRow, 'author_id' | 'filled_by' | 'submitted_by'>): string[] {
-  return [v.author_id, v.filled_by, v.submitted_by].filter((id): id is string => !!id)
+export function makers(v: Pick<VersionRecord, 'authorId' | 'filledBy' | 'submittedBy'>): string[] {
+  return [v.authorId, v.filledBy, v.submittedBy].filter((id): id is string => !!id)
 }
 
 export async function listComments(versionId: string): Promise<VersionCommentDto[]> {
@@ -51,14 +34,14 @@ export async function reviewState(access: OrgAccess, tableId: string, number: nu
   const madeThis = makers(v).includes(access.user.id)
   const mayDecide = can(access.role, 'reviews:decide')
   return {
-    versionId: v.id, number: v.number, status: v.status, hasFill: v.has_fill,
+    versionId: v.id, number: v.number, status: v.status, hasFill: v.hasFill,
     author: person(r!, 'au'), filledBy: person(r!, 'fb'), submittedBy: person(r!, 'sb'), submittedAt: iso(r!.submitted_at),
     approvedBy: person(r!, 'ab'), approvedAt: iso(r!.approved_at), retiredBy: person(r!, 'rb'), retiredAt: iso(r!.retired_at),
     retireReason: (r!.retire_reason as string | null) ?? null, supersededBy: (r!.superseded_number as number | null) ?? null,
     comments: await listComments(v.id),
     you: {
       madeThis,
-      canSubmit: can(access.role, 'reviews:submit') && v.status === 'draft' && v.has_fill,
+      canSubmit: can(access.role, 'reviews:submit') && v.status === 'draft' && v.hasFill,
       canDecide: mayDecide && v.status === 'in-review' && !madeThis,
       canRetire: mayDecide && v.status === 'approved',
       canExport: can(access.role, 'exports:download') && (v.status === 'approved' || v.status === 'retired'),

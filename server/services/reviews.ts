@@ -4,7 +4,8 @@ import type { ReviewStateDto } from '#shared/types/review'
 import type { CommentKind } from '#shared/types/review'
 import type { ApiErrorCode } from '#shared/api-errors'
 import type { OrgAccess } from '../utils/auth'
-import { findVersion, makers, reviewState, type VersionRow } from './review-queries'
+import { makers, reviewState } from './review-queries'
+import { findTable, findVersion, type VersionRecord } from './tables'
 import { notifyReviewDecided, notifyReviewRequested, type ReviewMailContext } from './review-mail'
 
 // Maker-checker: submit (draft -> in-review), sign off (in-review -> approved, the previous approved
@@ -17,23 +18,23 @@ async function addComment(t: Transaction, access: OrgAccess, versionId: string, 
     { replacements: { org: access.org.id, versionId, author: access.user.id, kind, body }, transaction: t })
 }
 
-function mailContext(access: OrgAccess, v: VersionRow): ReviewMailContext {
-  return { orgId: access.org.id, orgSlug: access.org.slug, orgName: access.org.name, tableId: v.table_id, tableName: v.table_name, number: v.number, actorName: access.user.name }
+function mailContext(access: OrgAccess, v: VersionRecord): ReviewMailContext {
+  return { orgId: access.org.id, orgSlug: access.org.slug, orgName: access.org.name, tableId: v.tableId, tableName: v.tableName, number: v.number, actorName: access.user.name }
 }
 
-const auditVersion = (event: H3Event, access: OrgAccess, v: VersionRow, action: string, detail: Record<string, unknown>, t: Transaction) =>
-  audit(event, { orgId: access.org.id, action, objectType: 'table_version', objectId: v.id, detail: { tableId: v.table_id, number: v.number, ...detail } }, t)
+const auditVersion = (event: H3Event, access: OrgAccess, v: VersionRecord, action: string, detail: Record<string, unknown>, t: Transaction) =>
+  audit(event, { orgId: access.org.id, action, objectType: 'table_version', objectId: v.id, detail: { tableId: v.tableId, number: v.number, ...detail } }, t)
 
 export async function submitForReview(event: H3Event, access: OrgAccess, tableId: string, number: number, note?: string): Promise<ReviewStateDto> {
   const v = await inTransaction(async (t) => {
-    const v = await findVersion(access.org.id, tableId, number, t)
+    const v = await findVersion(access.org.id, tableId, number, { transaction: t, lock: true })
     if (v.status !== 'draft') conflict('Only a working draft can be submitted for a second check.')
-    if (!v.has_fill) conflict('Record a fill for this draft first: a second check needs the chosen method and its filled values.', 'fill-missing')
+    if (!v.hasFill) conflict('Record a fill for this draft first: a second check needs the chosen method and its filled values.', 'fill-missing')
     await useDb().query(`UPDATE table_versions SET status = 'in-review', submitted_by = :user, submitted_at = now(), lock_version = lock_version + 1, updated_at = now() WHERE id = :id`,
       { replacements: { user: access.user.id, id: v.id }, transaction: t })
     await addComment(t, access, v.id, 'submit', note || 'Submitted for a second check.')
     await auditVersion(event, access, v, 'version.submit', { note: note ?? null }, t)
-    return { ...v, submitted_by: access.user.id }
+    return { ...v, submittedBy: access.user.id }
   })
   await notifyReviewRequested(mailContext(access, v), makers(v), note)
   return reviewState(access, tableId, number)
@@ -48,11 +49,11 @@ export async function approveVersion(event: H3Event, access: OrgAccess, tableId:
     throw ownWork()
   }
   const v = await inTransaction(async (t) => {
-    await useDb().query('SELECT id FROM rate_tables WHERE id = :tableId AND org_id = :org FOR UPDATE', { replacements: { tableId, org: access.org.id }, transaction: t })
-    const v = await findVersion(access.org.id, tableId, number, t)
+    await findTable(access.org.id, tableId, { transaction: t, lock: true })
+    const v = await findVersion(access.org.id, tableId, number, { transaction: t, lock: true })
     if (makers(v).includes(access.user.id)) throw ownWork()
     if (v.status !== 'in-review') conflict('Only a version awaiting a second check can be signed off.')
-    if (!v.has_fill) conflict('This version has no recorded fill; send it back.', 'fill-missing')
+    if (!v.hasFill) conflict('This version has no recorded fill; send it back.', 'fill-missing')
     const previous = await useDb().query<{ id: string; number: number }>(`SELECT id, number FROM table_versions WHERE table_id = :tableId AND status = 'approved' AND id <> :id`,
       { replacements: { tableId, id: v.id }, type: QueryTypes.SELECT, transaction: t })
     await useDb().query(`UPDATE table_versions SET status = 'approved', approved_by = :user, approved_at = now(), updated_at = now() WHERE id = :id`,
@@ -72,7 +73,7 @@ export async function approveVersion(event: H3Event, access: OrgAccess, tableId:
 
 export async function sendBack(event: H3Event, access: OrgAccess, tableId: string, number: number, comment: string): Promise<ReviewStateDto> {
   const v = await inTransaction(async (t) => {
-    const v = await findVersion(access.org.id, tableId, number, t)
+    const v = await findVersion(access.org.id, tableId, number, { transaction: t, lock: true })
     if (makers(v).includes(access.user.id)) throw apiError(403, 'own-work', 'You made this version: to change it yourself, ask a reviewer to send it back, or comment on it.')
     if (v.status !== 'in-review') conflict('Only a version awaiting a second check can be sent back.')
     await useDb().query(`UPDATE table_versions SET status = 'draft', submitted_by = NULL, submitted_at = NULL, lock_version = lock_version + 1, updated_at = now() WHERE id = :id`,
@@ -87,7 +88,7 @@ export async function sendBack(event: H3Event, access: OrgAccess, tableId: strin
 
 export async function retireVersion(event: H3Event, access: OrgAccess, tableId: string, number: number, reason: string): Promise<ReviewStateDto> {
   await inTransaction(async (t) => {
-    const v = await findVersion(access.org.id, tableId, number, t)
+    const v = await findVersion(access.org.id, tableId, number, { transaction: t, lock: true })
     if (v.status !== 'approved') conflict('Only a signed-off version can be withdrawn.')
     await useDb().query(`UPDATE table_versions SET status = 'retired', retired_by = :user, retired_at = now(), retire_reason = :reason, updated_at = now() WHERE id = :id`,
       { replacements: { user: access.user.id, reason, id: v.id }, transaction: t })
@@ -99,7 +100,7 @@ export async function retireVersion(event: H3Event, access: OrgAccess, tableId: 
 
 export async function commentOn(event: H3Event, access: OrgAccess, tableId: string, number: number, body: string): Promise<ReviewStateDto> {
   await inTransaction(async (t) => {
-    const v = await findVersion(access.org.id, tableId, number, t)
+    const v = await findVersion(access.org.id, tableId, number, { transaction: t, lock: true })
     await addComment(t, access, v.id, 'comment', body)
     await auditVersion(event, access, v, 'version.comment', { length: body.length }, t)
   })

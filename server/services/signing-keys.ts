@@ -3,6 +3,7 @@ import { QueryTypes, type Transaction } from 'sequelize'
 import type { KeyObject } from 'node:crypto'
 import { generateSigningKey, keyIdOf, openPrivateKey, publicJwk, sealPrivateKey, type PublicJwk } from '../lib/signing'
 import type { OrgAccess } from '../utils/auth'
+import { Organisation } from '../database/models'
 
 // Each organisation's Ed25519 key pair: created on first export, rotated by retiring the active
 // key and creating a new one. Retired public keys stay published so older exports still verify.
@@ -58,4 +59,11 @@ export async function rotateSigningKey(event: H3Event, access: OrgAccess): Promi
     await audit(event, { orgId: access.org.id, action: 'signing-key.rotate', objectType: 'signing_key', objectId: created.kid, detail: { retired: retired.map(r => r.kid), created: created.kid } }, t)
   })
   return listSigningKeys(access.org.id)
+}
+
+/** An organisation's public signing keys by its slug (published without sign-in), or 404. */
+export async function publicKeysOfSlug(slug: string): Promise<{ keys: SigningKeyDto[] }> {
+  const org = await Organisation.findOne({ where: { slug } })
+  if (!org) notFound('organisation')
+  return { keys: await listSigningKeys(org.id) }
 }

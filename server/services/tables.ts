@@ -1,6 +1,55 @@
-import { QueryTypes } from 'sequelize'
+import { QueryTypes, type Transaction } from 'sequelize'
 import type { TableSummaryDto } from '#shared/types/api'
 import type { TableKind, VersionStatus } from '#shared/tables'
+import { isUuid } from '#shared/schemas/route-params'
+import { RateTable } from '../database/models'
+
+// The one place that finds a table or a version of an organisation. Another organisation's object, a missing one and a
+// malformed id all answer the same 404, so existence is never revealed.
+
+export interface LookupOptions { transaction?: Transaction, lock?: boolean }
+
+/** The table of this organisation, or 404. With `lock`, the table row is locked FOR UPDATE in the transaction. */
+export async function findTable(orgId: string, tableId: string, options: LookupOptions = {}): Promise<RateTable> {
+  const { transaction, lock } = options
+  const table = isUuid(tableId) ? await RateTable.findOne({ where: { id: tableId, orgId }, transaction, ...(lock && transaction ? { lock: transaction.LOCK.UPDATE } : {}) }) : null
+  return table ?? notFound('table')
+}
+
+/** What every caller needs to know about a version; other columns are read by id where needed. */
+export interface VersionRecord {
+  id: string
+  number: number
+  status: VersionStatus
+  tableId: string
+  tableName: string
+  lockVersion: number
+  contentHash: string
+  authorId: string | null
+  filledBy: string | null
+  submittedBy: string | null
+  /** A fill is recorded (spec and values). */
+  hasFill: boolean
+}
+
+/** Version `number` of the organisation's table, or 404. With `lock`, the version row is locked FOR UPDATE in the transaction. */
+export async function findVersion(orgId: string, tableId: string, number: number, options: LookupOptions = {}): Promise<VersionRecord> {
+  const { transaction, lock } = options
+  if (!isUuid(tableId) || !Number.isSafeInteger(number)) notFound('version')
+  const [row] = await useDb().query<Record<string, unknown>>(`
+    SELECT v.id, v.number, v.status, v.table_id, rt.name AS table_name, v.lock_version, v.content_hash, v.author_id, v.filled_by, v.submitted_by,
+           (v.fill_spec IS NOT NULL AND EXISTS (SELECT 1 FROM version_fill_points f WHERE f.version_id = v.id)) AS has_fill
+    FROM table_versions v JOIN rate_tables rt ON rt.id = v.table_id
+    WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number ${lock && transaction ? 'FOR UPDATE OF v' : ''}`,
+  { replacements: { orgId, tableId, number }, type: QueryTypes.SELECT, transaction })
+  if (!row) notFound('version')
+  return {
+    id: row.id as string, number: row.number as number, status: row.status as VersionStatus, tableId: row.table_id as string,
+    tableName: row.table_name as string, lockVersion: row.lock_version as number, contentHash: row.content_hash as string,
+    authorId: row.author_id as string | null, filledBy: row.filled_by as string | null, submittedBy: row.submitted_by as string | null,
+    hasFill: row.has_fill as boolean,
+  }
+}
 
 export interface TableListQuery { q?: string; kind?: TableKind; status?: VersionStatus; sort: 'name' | 'updated' | 'kind' }
 

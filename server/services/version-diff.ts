@@ -1,17 +1,18 @@
 import { QueryTypes } from 'sequelize'
 import { D, canonicalDecimal } from '#shared/decimal-text'
 import type { DiffRowDto, DiffSideDto, VersionDiffDto } from '#shared/types/diff'
+import { findTable, findVersion } from './tables'
+import { readPoints, type PointTable } from './points-store'
 
 // Two versions of one table compared exactly (decimal.js): given points, filled values, fill settings, money view.
 type Row = Record<string, unknown>
 interface Side { dto: DiffSideDto; spec: Record<string, unknown> | null; money: { figures?: { key: string; label: string; value: string | null }[] } | null; points: Map<string, string>; values: Map<string, string> }
 
 async function load(orgId: string, tableId: string, number: number): Promise<Side> {
-  const [v] = await useDb().query<Row>('SELECT id, number, status, fill_spec, fill_money FROM table_versions WHERE org_id = :orgId AND table_id = :tableId AND number = :number',
-    { replacements: { orgId, tableId, number }, type: QueryTypes.SELECT })
+  const { id } = await findVersion(orgId, tableId, number)
+  const [v] = await useDb().query<Row>('SELECT id, number, status, fill_spec, fill_money FROM table_versions WHERE id = :id', { replacements: { id }, type: QueryTypes.SELECT })
   if (!v) notFound('version')
-  const read = async (t: string) => new Map((await useDb().query<{ x: string; y: string }>(`SELECT x::text AS x, y::text AS y FROM ${t} WHERE version_id = :id ORDER BY x`,
-    { replacements: { id: v.id }, type: QueryTypes.SELECT })).map(r => [canonicalDecimal(r.x), canonicalDecimal(r.y)] as const))
+  const read = async (table: PointTable) => new Map((await readPoints(id, undefined, table)).map(p => [p.x, p.y] as const))
   const spec = (v.fill_spec as Record<string, unknown> | null) ?? null
   const points = await read('version_points')
   const values = await read('version_fill_points')
@@ -40,7 +41,7 @@ function compareMaps(a: Map<string, string>, b: Map<string, string>) {
 const show = (v: unknown) => (v === undefined || v === null ? '—' : typeof v === 'string' ? v : JSON.stringify(v))
 
 export async function diffVersions(orgId: string, tableId: string, a: number, b: number): Promise<VersionDiffDto> {
-  if (!/^[0-9a-f-]{36}$/i.test(tableId)) notFound('table')
+  await findTable(orgId, tableId)
   const [A, B] = [await load(orgId, tableId, a), await load(orgId, tableId, b)]
   const keys = [...new Set([...Object.keys(A.spec ?? {}), ...Object.keys(B.spec ?? {})])].filter(k => !['engineVersion', 'knotCount'].includes(k)).sort()
   const settings = keys.map(k => ({ field: k, a: show(A.spec?.[k]), b: show(B.spec?.[k]) })).filter(s => s.a !== s.b)

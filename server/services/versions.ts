@@ -7,6 +7,7 @@ import { checkAxis, checkValue } from '#shared/table-rules'
 import { pointsContentHash } from '../lib/points-hash'
 import { RateTable } from '../database/models'
 import { insertPoints, readPoints } from './points-store'
+import { findTable, findVersion } from './tables'
 import { sortPoints } from '../lib/import/validate'
 
 const SUMMARY_SQL = `
@@ -30,12 +31,6 @@ const toSummary = (r: Row): VersionSummaryDto => ({
   updatedAt: new Date(r.updated_at as string).toISOString(),
 })
 
-/** The table of this organisation, or 404 (another organisation's table looks the same as none). */
-export async function findTable(orgId: string, tableId: string): Promise<RateTable> {
-  const table = /^[0-9a-f-]{36}$/i.test(tableId) ? await RateTable.findOne({ where: { id: tableId, orgId } }) : null
-  return table ?? notFound('table')
-}
-
 export async function listVersions(orgId: string, tableId: string): Promise<VersionSummaryDto[]> {
   const rows = await useDb().query<Row>(`${SUMMARY_SQL} ORDER BY v.number DESC`, { replacements: { orgId, tableId }, type: QueryTypes.SELECT })
   return rows.map(toSummary)
@@ -51,9 +46,9 @@ export async function describeTable(orgId: string, tableId: string): Promise<Tab
 }
 
 export async function getVersion(orgId: string, tableId: string, number: number): Promise<VersionDto> {
-  const [row] = await useDb().query<Row>(`${SUMMARY_SQL} AND v.number = :number`, { replacements: { orgId, tableId, number }, type: QueryTypes.SELECT })
-  if (!row) notFound('version')
-  return { ...toSummary(row), points: await readPoints(row.id as string) }
+  const { id } = await findVersion(orgId, tableId, number)
+  const [row] = await useDb().query<Row>(`${SUMMARY_SQL} AND v.id = :id`, { replacements: { orgId, tableId, id }, type: QueryTypes.SELECT })
+  return { ...toSummary(row!), points: await readPoints(id) }
 }
 
 export async function updateTable(event: H3Event, access: OrgAccess, tableId: string, input: TableUpdateInput): Promise<TableDto> {
@@ -96,11 +91,9 @@ export async function savePoints(event: H3Event, access: OrgAccess, tableId: str
        WHERE org_id = :orgId AND table_id = :tableId AND number = :number AND status = 'draft' AND lock_version = :lock RETURNING id, lock_version`,
       { replacements: { hash, notes: input.notes ?? null, orgId: access.org.id, tableId, number, lock: input.lockVersion }, type: QueryTypes.SELECT, transaction: t })
     if (!rows.length) {
-      const [current] = await useDb().query<Row>('SELECT status, lock_version FROM table_versions WHERE org_id = :orgId AND table_id = :tableId AND number = :number',
-        { replacements: { orgId: access.org.id, tableId, number }, type: QueryTypes.SELECT, transaction: t })
-      if (!current) notFound('version')
+      const current = await findVersion(access.org.id, tableId, number, { transaction: t })
       if (current.status !== 'draft') throw apiError(409, 'not-a-draft', 'Only a working draft can be edited; start a new draft from this version.')
-      throw apiError(409, 'draft-conflict', 'Someone saved this draft after you opened it. Your edits are kept on screen: reload their version, then apply yours again.', { lockVersion: current.lock_version })
+      throw apiError(409, 'draft-conflict', 'Someone saved this draft after you opened it. Your edits are kept on screen: reload their version, then apply yours again.', { lockVersion: current.lockVersion })
     }
     const versionId = rows[0]!.id as string
     await useDb().query('DELETE FROM version_points WHERE version_id = :versionId', { replacements: { versionId }, transaction: t })
@@ -112,9 +105,8 @@ export async function savePoints(event: H3Event, access: OrgAccess, tableId: str
 
 /** A new working draft (number + 1) with the points of a signed-off or withdrawn version. */
 export async function newDraftFrom(event: H3Event, access: OrgAccess, tableId: string, fromNumber: number): Promise<VersionDto> {
-  await findTable(access.org.id, tableId)
   const number = await inTransaction(async (t) => {
-    await useDb().query('SELECT id FROM rate_tables WHERE id = :tableId FOR UPDATE', { replacements: { tableId }, transaction: t })
+    await findTable(access.org.id, tableId, { transaction: t, lock: true })
     const versions = await useDb().query<Row>('SELECT id, number, status, content_hash FROM table_versions WHERE org_id = :orgId AND table_id = :tableId ORDER BY number',
       { replacements: { orgId: access.org.id, tableId }, type: QueryTypes.SELECT, transaction: t })
     const source = versions.find(v => v.number === fromNumber) ?? notFound('version')

@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 import type { Transaction } from 'sequelize'
 import type { AuditContent } from '../lib/audit-chain'
-import { appendAuditEvent } from '../lib/audit-writer'
+import { appendAuditEvent } from '../services/audit-writer'
 
 export interface AuditInput {
   orgId?: string | null

@@ -6,17 +6,10 @@ import { Sequelize } from 'sequelize'
 import pg from 'pg'
 
 export const BASE = process.env.KW_BASE_URL ?? 'http://127.0.0.1:3000'
-export const DEMO_PASSWORD = 'knotwork-demo-2026'
-export const DEMO = {
-  admin: 'hazel.okafor@larkspur.example',
-  actuary: 'tomas.varga@larkspur.example',
-  analyst: 'priya.raman@larkspur.example',
-  auditor: 'greta.lind@larkspur.example',
-  both: 'felix.amari@fenwickrowe.example',
-  otherAdmin: 'oona.pike@fenwickrowe.example',
-} as const
-export const LARKSPUR = 'larkspur-mutual'
-export const FENWICK = 'fenwick-rowe'
+import { DEMO_PASSWORD, DEMO_PEOPLE, FENWICK, LARKSPUR } from '../demo-people'
+
+export { DEMO_PASSWORD, FENWICK, LARKSPUR }
+export const DEMO = DEMO_PEOPLE
 
 let ipCounter = 0
 /** A distinct client address per client (the test server trusts X-Forwarded-For), so throttling tests stay apart. */

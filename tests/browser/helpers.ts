@@ -1,15 +1,10 @@
 import type { Page } from '@playwright/test'
 import { mkdirSync } from 'node:fs'
 
-export const PASSWORD = 'knotwork-demo-2026'
-export const PEOPLE = {
-  admin: 'hazel.okafor@larkspur.example',
-  actuary: 'tomas.varga@larkspur.example',
-  analyst: 'priya.raman@larkspur.example',
-  auditor: 'greta.lind@larkspur.example',
-  both: 'felix.amari@fenwickrowe.example',
-  otherAdmin: 'oona.pike@fenwickrowe.example',
-} as const
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '../demo-people'
+
+export const PASSWORD = DEMO_PASSWORD
+export const PEOPLE = DEMO_PEOPLE
 
 let addressCounter = 0
 /** Each test signs in from its own address (the test server trusts X-Forwarded-For). */

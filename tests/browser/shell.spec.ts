@@ -22,7 +22,7 @@ test('a wrong password gets a plain message and no session', async ({ page }) =>
   await expect(page).toHaveURL(/\/signin/)
 })
 
-// Navigation by role, from the permission table of DOMAIN.md section 5
+// Navigation by role, from the permission table of docs/domain.md#permissions
 const NAV: Record<'admin' | 'actuary' | 'analyst' | 'auditor', { shows: string[]; hides: string[] }> = {
   admin: { shows: ['nav-tables', 'nav-audit', 'nav-verify', 'nav-members', 'nav-billing'], hides: ['nav-reviews', 'nav-import'] },
   actuary: { shows: ['nav-tables', 'nav-reviews', 'nav-audit', 'nav-verify', 'nav-import'], hides: ['nav-members', 'nav-billing'] },

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { can, PERMISSIONS, ROLES, type Permission, type Role } from '#shared/permissions'
 
-// DOMAIN.md section 5, transcribed row by row: the table the product must enforce.
+// docs/domain.md#permissions, transcribed row by row: the table the product must enforce.
 const TABLE: Record<Permission, Record<Role, boolean>> = {
   'tables:read': { admin: true, actuary: true, analyst: true, auditor: true },
   'tables:edit': { admin: false, actuary: true, analyst: true, auditor: false },

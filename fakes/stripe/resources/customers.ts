@@ -3,7 +3,7 @@ import { invalid } from '../errors.ts'
 import { newId, randomToken } from '../ids.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, optInt, optNullableString, optObject, optString } from '../params.ts'
-import type { Route } from '../route.ts'
+import { resourceRoutes, type Route } from '../route.ts'
 import { clone, type Obj } from '../store.ts'
 import { attachPaymentMethod } from './payment_methods.ts'
 import { cancelSubscriptionNow } from '../billing/lifecycle.ts'
@@ -89,9 +89,5 @@ function list(ctx: Ctx): Obj {
 }
 
 export const routes: Route[] = [
-  { method: 'POST', path: '/v1/customers', handler: create },
-  { method: 'GET', path: '/v1/customers', handler: list },
-  { method: 'GET', path: '/v1/customers/:id', handler: retrieve },
-  { method: 'POST', path: '/v1/customers/:id', handler: update },
-  { method: 'DELETE', path: '/v1/customers/:id', handler: remove },
+  ...resourceRoutes('/v1/customers', { create, list, retrieve, update, remove }),
 ]

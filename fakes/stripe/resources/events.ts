@@ -1,7 +1,7 @@
 import type { Ctx } from '../context.ts'
 import { createdFilter, listResponse } from '../list.ts'
 import { allowOnly, listParam, optString } from '../params.ts'
-import type { Route } from '../route.ts'
+import { resourceRoutes, type Route } from '../route.ts'
 import type { Obj } from '../store.ts'
 
 /** `type` may end in `*` (`invoice.*`), as in Stripe. */
@@ -19,6 +19,5 @@ function list(ctx: Ctx): Obj {
 }
 
 export const routes: Route[] = [
-  { method: 'GET', path: '/v1/events', handler: list },
-  { method: 'GET', path: '/v1/events/:id', handler: (ctx) => ctx.store.require('events', ctx.params.id!, 'event') },
+  ...resourceRoutes('/v1/events', { list, retrieve: (ctx) => ctx.store.require('events', ctx.params.id!, 'event') }),
 ]

@@ -2,7 +2,7 @@ import { emit, type Ctx } from '../context.ts'
 import { invalid } from '../errors.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, optBool, optInt, optNullableString, optObject, optString, reqString } from '../params.ts'
-import type { Route } from '../route.ts'
+import { resourceRoutes, type Route } from '../route.ts'
 import type { Obj } from '../store.ts'
 import { lineFromItem, newInvoiceItem } from '../billing/invoice_items.ts'
 import { recomputeTotals } from '../billing/invoices.ts'
@@ -57,8 +57,5 @@ function remove(ctx: Ctx): Obj {
 }
 
 export const routes: Route[] = [
-  { method: 'POST', path: '/v1/invoiceitems', handler: create },
-  { method: 'GET', path: '/v1/invoiceitems', handler: list },
-  { method: 'GET', path: '/v1/invoiceitems/:id', handler: (ctx) => ctx.store.require('invoiceitems', ctx.params.id!, 'invoiceitem') },
-  { method: 'DELETE', path: '/v1/invoiceitems/:id', handler: remove },
+  ...resourceRoutes('/v1/invoiceitems', { create, list, retrieve: (ctx) => ctx.store.require('invoiceitems', ctx.params.id!, 'invoiceitem'), remove }),
 ]

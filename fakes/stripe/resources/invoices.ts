@@ -2,7 +2,7 @@ import { emit, previousAttributes, type Ctx } from '../context.ts'
 import { invalid } from '../errors.ts'
 import { createdFilter, listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, optBool, optEnum, optNullableString, optString, reqString } from '../params.ts'
-import type { Route } from '../route.ts'
+import { resourceRoutes, type Route } from '../route.ts'
 import { clone, type Obj } from '../store.ts'
 import { pullPendingItems } from '../billing/invoice_items.ts'
 import { finalizeInvoice, invoiceSubscription, newInvoice, recomputeTotals } from '../billing/invoices.ts'
@@ -103,11 +103,7 @@ function list(ctx: Ctx): Obj {
 }
 
 export const routes: Route[] = [
-  { method: 'POST', path: '/v1/invoices', handler: create },
-  { method: 'GET', path: '/v1/invoices', handler: list },
-  { method: 'GET', path: '/v1/invoices/:id', handler: get },
-  { method: 'POST', path: '/v1/invoices/:id', handler: update },
-  { method: 'DELETE', path: '/v1/invoices/:id', handler: remove },
+  ...resourceRoutes('/v1/invoices', { create, list, retrieve: get, update, remove }),
   { method: 'GET', path: '/v1/invoices/:id/lines', handler: (ctx) => listResponse([...get(ctx).lines.data], ctx.body, `/v1/invoices/${ctx.params.id}/lines`) },
   { method: 'POST', path: '/v1/invoices/:id/finalize', handler: finalize },
   { method: 'POST', path: '/v1/invoices/:id/pay', handler: pay },

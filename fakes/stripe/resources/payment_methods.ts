@@ -4,7 +4,7 @@ import { invalid, missing } from '../errors.ts'
 import { newId } from '../ids.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, optEnum, optInt, optObject, optString, reqString } from '../params.ts'
-import type { Route } from '../route.ts'
+import { resourceRoutes, type Route } from '../route.ts'
 import { clone, type Obj } from '../store.ts'
 
 export function createCardPaymentMethod(ctx: Ctx, number: string, expMonth: number, expYear: number, billing: Obj = {}): Obj {
@@ -112,13 +112,11 @@ function listFor(ctx: Ctx, customer: string, url: string): Obj {
 }
 
 export const routes: Route[] = [
-  { method: 'POST', path: '/v1/payment_methods', handler: create },
+  ...resourceRoutes('/v1/payment_methods', { create, retrieve: (ctx) => ctx.store.require('payment_methods', ctx.params.id!, 'PaymentMethod'), update }),
   { method: 'GET', path: '/v1/payment_methods', handler: (ctx) => {
     allowOnly(ctx.body, ['customer', 'type', 'limit', 'starting_after', 'ending_before'])
     return listFor(ctx, reqString(ctx.body, 'customer'), '/v1/payment_methods')
   } },
-  { method: 'GET', path: '/v1/payment_methods/:id', handler: (ctx) => ctx.store.require('payment_methods', ctx.params.id!, 'PaymentMethod') },
-  { method: 'POST', path: '/v1/payment_methods/:id', handler: update },
   { method: 'POST', path: '/v1/payment_methods/:id/attach', handler: attach },
   { method: 'POST', path: '/v1/payment_methods/:id/detach', handler: detach },
   { method: 'GET', path: '/v1/customers/:id/payment_methods', handler: (ctx) => {

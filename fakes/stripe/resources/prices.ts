@@ -3,7 +3,7 @@ import { invalid } from '../errors.ts'
 import { newId } from '../ids.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, listParam, optBool, optEnum, optInt, optNullableString, optObject, optString, reqString } from '../params.ts'
-import type { Route } from '../route.ts'
+import { resourceRoutes, type Route } from '../route.ts'
 import { clone, type Obj } from '../store.ts'
 import { newProduct } from './products.ts'
 
@@ -99,8 +99,5 @@ function list(ctx: Ctx): Obj {
 }
 
 export const routes: Route[] = [
-  { method: 'POST', path: '/v1/prices', handler: create },
-  { method: 'GET', path: '/v1/prices', handler: list },
-  { method: 'GET', path: '/v1/prices/:id', handler: (ctx) => ctx.store.require('prices', ctx.params.id!, 'price') },
-  { method: 'POST', path: '/v1/prices/:id', handler: update },
+  ...resourceRoutes('/v1/prices', { create, list, retrieve: (ctx) => ctx.store.require('prices', ctx.params.id!, 'price'), update }),
 ]

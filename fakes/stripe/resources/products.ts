@@ -2,7 +2,7 @@ import { emit, previousAttributes, type Ctx } from '../context.ts'
 import { newId } from '../ids.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, optBool, optNullableString, reqString } from '../params.ts'
-import type { Route } from '../route.ts'
+import { resourceRoutes, type Route } from '../route.ts'
 import { clone, type Obj } from '../store.ts'
 
 export function newProduct(ctx: Ctx, name: string): Obj {
@@ -60,8 +60,5 @@ function list(ctx: Ctx): Obj {
 }
 
 export const routes: Route[] = [
-  { method: 'POST', path: '/v1/products', handler: create },
-  { method: 'GET', path: '/v1/products', handler: list },
-  { method: 'GET', path: '/v1/products/:id', handler: (ctx) => ctx.store.require('products', ctx.params.id!, 'product') },
-  { method: 'POST', path: '/v1/products/:id', handler: update },
+  ...resourceRoutes('/v1/products', { create, list, retrieve: (ctx) => ctx.store.require('products', ctx.params.id!, 'product'), update }),
 ]

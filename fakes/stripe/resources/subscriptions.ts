@@ -2,7 +2,7 @@ import { emit, type Ctx } from '../context.ts'
 import { invalid } from '../errors.ts'
 import { listResponse, createdFilter } from '../list.ts'
 import { allowOnly, optBool, optObject, optString } from '../params.ts'
-import type { Route } from '../route.ts'
+import { resourceRoutes, type Route } from '../route.ts'
 import type { Obj } from '../store.ts'
 import { newInvoiceItem, pullPendingItems } from '../billing/invoice_items.ts'
 import { finalizeInvoice, newInvoice } from '../billing/invoices.ts'
@@ -59,9 +59,5 @@ function list(ctx: Ctx): Obj {
 }
 
 export const routes: Route[] = [
-  { method: 'POST', path: '/v1/subscriptions', handler: createSubscription },
-  { method: 'GET', path: '/v1/subscriptions', handler: list },
-  { method: 'GET', path: '/v1/subscriptions/:id', handler: (ctx) => ctx.store.require('subscriptions', ctx.params.id!, 'subscription') },
-  { method: 'POST', path: '/v1/subscriptions/:id', handler: updateSubscription },
-  { method: 'DELETE', path: '/v1/subscriptions/:id', handler: cancel },
+  ...resourceRoutes('/v1/subscriptions', { create: createSubscription, list, retrieve: (ctx) => ctx.store.require('subscriptions', ctx.params.id!, 'subscription'), update: updateSubscription, remove: cancel }),
 ]

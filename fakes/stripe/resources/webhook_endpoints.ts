@@ -3,7 +3,7 @@ import { invalid } from '../errors.ts'
 import { newId, randomToken } from '../ids.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, listParam, optBool, optNullableString, optString, reqString } from '../params.ts'
-import type { Route } from '../route.ts'
+import { resourceRoutes, type Route } from '../route.ts'
 import type { Obj } from '../store.ts'
 
 function validUrl(url: string): string {
@@ -55,9 +55,5 @@ function remove(ctx: Ctx): Obj {
 }
 
 export const routes: Route[] = [
-  { method: 'POST', path: '/v1/webhook_endpoints', handler: create },
-  { method: 'GET', path: '/v1/webhook_endpoints', handler: (ctx) => listResponse(ctx.store.all('webhook_endpoints'), ctx.body, '/v1/webhook_endpoints') },
-  { method: 'GET', path: '/v1/webhook_endpoints/:id', handler: (ctx) => ctx.store.require('webhook_endpoints', ctx.params.id!, 'webhook endpoint') },
-  { method: 'POST', path: '/v1/webhook_endpoints/:id', handler: update },
-  { method: 'DELETE', path: '/v1/webhook_endpoints/:id', handler: remove },
+  ...resourceRoutes('/v1/webhook_endpoints', { create, list: (ctx) => listResponse(ctx.store.all('webhook_endpoints'), ctx.body, '/v1/webhook_endpoints'), retrieve: (ctx) => ctx.store.require('webhook_endpoints', ctx.params.id!, 'webhook endpoint'), update, remove }),
 ]

@@ -1,6 +1,5 @@
 import { z } from 'zod'
-import { Organisation } from '~~/server/database/models'
-import { listSigningKeys } from '~~/server/services/signing-keys'
+import { publicKeysOfSlug } from '~~/server/services/signing-keys'
 
 const paramsSchema = z.object({ file: z.string().regex(/^[a-z0-9][a-z0-9-]{1,62}\.json$/, 'Ask for /api/keys/<organisation>.json') })
 
@@ -8,8 +7,7 @@ const paramsSchema = z.object({ file: z.string().regex(/^[a-z0-9][a-z0-9-]{1,62}
 // auditors outside Knotwork (docs/verify-offline.md). Public keys only; nothing secret is revealed.
 export default defineEventHandler(async (event) => {
   const { file } = readValidParams(event, paramsSchema)
-  const org = await Organisation.findOne({ where: { slug: file.replace(/\.json$/, '') } })
-  if (!org) notFound('organisation')
+  const keys = await publicKeysOfSlug(file.replace(/\.json$/, ''))
   setResponseHeader(event, 'cache-control', 'public, max-age=300')
-  return { keys: await listSigningKeys(org.id) }
+  return keys
 })

@@ -1,5 +1,5 @@
 // Diagnostics and comparison. Sources: the quadratic spline's zig-zag and its dependence on the end condition
-// (DOMAIN.md section 3; Chapra, quadratic splines); roughness as sums of squared differences (Whittaker 1923);
+// (docs/methods.md, quadratic spline; Chapra, quadratic splines); roughness as sums of squared differences (Whittaker 1923);
 // forward rates from discount factors (Hull, Options, Futures and Other Derivatives, ch. 4).
 import { describe, expect, it } from 'vitest'
 import { compare, fill, METHODS, ENGINE_VERSION } from '~~/server/engine'

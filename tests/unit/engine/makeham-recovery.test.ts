@@ -3,7 +3,7 @@
 // q_x = 1 - exp(-(A + B c^x (c - 1) / ln c)) (integral of mu over [x, x+1]). We sample q at ages 20, 25, ..., 100,
 // fill every age 20..100 and measure the largest relative error of q_x per method and transform.
 import Decimal from 'decimal.js'
-import { describe, expect, it } from 'vitest'
+import { afterAll, describe, expect, it } from 'vitest'
 import { fill, type MethodId, type TransformId } from '~~/server/engine'
 
 const M = Decimal.clone({ precision: 60, rounding: Decimal.ROUND_HALF_EVEN })
@@ -71,8 +71,6 @@ describe('recovering the Standard Ultimate Life Table from 5-year ages (source: 
       expect(worst.lte(bound), `${method}/${transform}: ${worst.toSD(6).toString()}`).toBe(true)
     })
   }
-  it('prints the table', () => {
-    console.table(table)
-    expect(table.length).toBe(CASES.length)
-  })
+  // the summary is printed after the cases, whichever of them ran (a test that only passed after the others is gone)
+  afterAll(() => { if (table.length) console.table(table) })
 })

@@ -33,7 +33,7 @@ describe('quadratic spline: textbook worked example (source: Chapra, Applied Num
     expect(r.points[0]!.y).toBe('0.66')
   })
 
-  it('depends on which end carries the extra condition, and zig-zags (DOMAIN.md section 3)', () => {
+  it('depends on which end carries the extra condition, and zig-zags (docs/methods.md, quadratic spline)', () => {
     const left = fill({ knots: data, method: 'quadratic', at: ['5', '8'] })
     const right = fill({ knots: data, method: 'quadratic', options: { condition: 'right-zero-curvature' }, at: ['5', '8'] })
     expect(left.points[0]!.y).not.toBe(right.points[0]!.y)

@@ -1,8 +1,8 @@
+import { tableParamsSchema } from '#shared/schemas/route-params'
 import { z } from 'zod'
 import { requireReadToken } from '~~/server/services/read-tokens'
 import { signedOffPayload } from '~~/server/services/exports'
 
-const paramsSchema = z.object({ table: z.string().max(64) })
 const querySchema = z.object({ version: z.coerce.number().int().positive().max(1_000_000).optional() })
 
 // For production systems: the table's signed-off version (given points, chosen fill and its values, who made, checked and
@@ -11,7 +11,7 @@ const querySchema = z.object({ version: z.coerce.number().int().positive().max(1
 // without its signing time: If-None-Match with it answers 304, unaudited, while nothing in the content has changed.
 export default defineEventHandler(async (event) => {
   const access = await requireReadToken(event)
-  const { table } = readValidParams(event, paramsSchema)
+  const { table } = readValidParams(event, tableParamsSchema)
   const { version } = readValidQuery(event, querySchema)
   if (access.tableIds && !access.tableIds.includes(table.toLowerCase())) notFound('table') // outside the token's tables: as if absent
   const { tag, payload } = await signedOffPayload(event, access.org, table, { number: version, holds: getRequestHeader(event, 'if-none-match') })

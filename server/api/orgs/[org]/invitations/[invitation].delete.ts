@@ -1,11 +1,9 @@
-import { z } from 'zod'
+import { invitationParamsSchema } from '#shared/schemas/route-params'
 import { cancelInvitation } from '~~/server/services/invitations'
-
-const params = z.object({ invitation: z.string().max(64) })
 
 export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'members:manage')
-  const { invitation } = readValidParams(event, params)
+  const { invitation } = readValidParams(event, invitationParamsSchema)
   await cancelInvitation(event, access, invitation)
   return { ok: true }
 })

@@ -1,12 +1,10 @@
-import { z } from 'zod'
+import { memberParamsSchema } from '#shared/schemas/route-params'
 import { removeMember } from '~~/server/services/members'
-
-const params = z.object({ user: z.uuid({ message: 'No such member.' }) })
 
 // Removes a member: their access ends at once and their sessions are ended.
 export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'members:manage')
-  const { user } = readValidParams(event, params)
+  const { user } = readValidParams(event, memberParamsSchema)
   await removeMember(event, access, user)
   return { ok: true }
 })

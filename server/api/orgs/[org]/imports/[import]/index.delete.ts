@@ -1,11 +1,9 @@
-import { z } from 'zod'
+import { importParamsSchema } from '#shared/schemas/route-params'
 import { deleteImport } from '~~/server/services/imports'
-
-const paramsSchema = z.object({ import: z.string().max(64) })
 
 export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'tables:edit')
-  const { import: id } = readValidParams(event, paramsSchema)
+  const { import: id } = readValidParams(event, importParamsSchema)
   await deleteImport(event, access, id)
   return { deleted: true }
 })

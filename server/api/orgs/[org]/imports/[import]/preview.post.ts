@@ -1,13 +1,11 @@
-import { z } from 'zod'
+import { importParamsSchema } from '#shared/schemas/route-params'
 import { importMappingSchema } from '#shared/schemas/imports'
 import { previewImport } from '~~/server/services/imports'
-
-const paramsSchema = z.object({ import: z.string().max(64) })
 
 // Every finding for a mapping (errors block, warnings can be accepted); nothing is written.
 export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'tables:edit')
-  const { import: id } = readValidParams(event, paramsSchema)
+  const { import: id } = readValidParams(event, importParamsSchema)
   const mapping = await readValidBody(event, importMappingSchema)
   return previewImport(access, id, mapping)
 })

@@ -1,10 +1,8 @@
-import { z } from 'zod'
+import { tableParamsSchema } from '#shared/schemas/route-params'
 import { describeTable } from '~~/server/services/versions'
-
-const paramsSchema = z.object({ table: z.string().max(64) })
 
 export default defineEventHandler(async (event) => {
   const { org } = await requirePermission(event, 'tables:read')
-  const { table } = readValidParams(event, paramsSchema)
+  const { table } = readValidParams(event, tableParamsSchema)
   return describeTable(org.id, table)
 })

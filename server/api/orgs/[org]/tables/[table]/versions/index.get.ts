@@ -1,11 +1,10 @@
-import { z } from 'zod'
-import { findTable, listVersions } from '~~/server/services/versions'
-
-const paramsSchema = z.object({ table: z.string().max(64) })
+import { tableParamsSchema } from '#shared/schemas/route-params'
+import { listVersions } from '~~/server/services/versions'
+import { findTable } from '~~/server/services/tables'
 
 export default defineEventHandler(async (event) => {
   const { org } = await requirePermission(event, 'tables:read')
-  const { table } = readValidParams(event, paramsSchema)
+  const { table } = readValidParams(event, tableParamsSchema)
   await findTable(org.id, table)
   return listVersions(org.id, table)
 })

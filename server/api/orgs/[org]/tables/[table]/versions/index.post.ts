@@ -1,13 +1,11 @@
-import { z } from 'zod'
+import { tableParamsSchema } from '#shared/schemas/route-params'
 import { newDraftSchema } from '#shared/schemas/tables'
 import { newDraftFrom } from '~~/server/services/versions'
-
-const paramsSchema = z.object({ table: z.string().max(64) })
 
 // A new working draft copied from a signed-off or withdrawn version.
 export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'tables:edit')
-  const { table } = readValidParams(event, paramsSchema)
+  const { table } = readValidParams(event, tableParamsSchema)
   const { fromNumber } = await readValidBody(event, newDraftSchema)
   setResponseStatus(event, 201)
   return newDraftFrom(event, access, table, fromNumber)

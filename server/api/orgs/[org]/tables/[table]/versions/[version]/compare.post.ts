@@ -1,13 +1,11 @@
-import { z } from 'zod'
+import { versionParamsSchema } from '#shared/schemas/route-params'
 import { compareSchema } from '#shared/schemas/fills'
 import { runCompare } from '~~/server/services/fills'
-
-const paramsSchema = z.object({ table: z.string().max(64), version: z.coerce.number().int().min(1).max(1_000_000) })
 
 // Fills the version's stored points with every chosen method and sets the results side by side (read-only; any version).
 export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'fills:run')
-  const { table, version } = readValidParams(event, paramsSchema)
+  const { table, version } = readValidParams(event, versionParamsSchema)
   const input = await readValidBody(event, compareSchema)
   const res = event.node.res
   return runCompare(access, table, version, input, () => res.destroyed || res.socket?.destroyed === true)

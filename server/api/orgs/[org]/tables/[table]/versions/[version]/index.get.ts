@@ -1,10 +1,8 @@
-import { z } from 'zod'
+import { versionParamsSchema } from '#shared/schemas/route-params'
 import { getVersion } from '~~/server/services/versions'
-
-const paramsSchema = z.object({ table: z.string().max(64), version: z.coerce.number().int().min(1).max(1_000_000) })
 
 export default defineEventHandler(async (event) => {
   const { org } = await requirePermission(event, 'tables:read')
-  const { table, version } = readValidParams(event, paramsSchema)
+  const { table, version } = readValidParams(event, versionParamsSchema)
   return getVersion(org.id, table, version)
 })

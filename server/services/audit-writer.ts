@@ -1,5 +1,5 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize'
-import { chainHash, type AuditContent } from './audit-chain'
+import { chainHash, type AuditContent } from '../lib/audit-chain'
 
 /** Appends one event to its chain (per organisation; org-less events form the system chain). */
 export async function appendAuditEvent(db: Sequelize, content: AuditContent, t: Transaction): Promise<void> {
