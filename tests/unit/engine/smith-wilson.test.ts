@@ -81,6 +81,18 @@ describe('smith-wilson (EIOPA zero-coupon formulation)', () => {
     finer.points.forEach((p, k) => expect(new T(p.y).toSignificantDigits(40).toString()).toBe(first.points[k]!.y))
   })
 
+  it('fills discount factors on the same ln P(t) as the equivalent annual spot rates', () => {
+    const factors = knots(TERMS, RATES.map((r, i) => new T(r).plus(1).pow(new T(TERMS[i]!).neg()).toSignificantDigits(45).toString()))
+    const at = ['0.5', '7.5', '20', '35', '90']
+    const fromRates = fill({ ...BASE, at })
+    const fromFactors = fill({ ...BASE, knots: factors, kind: 'discount-factor', at })
+    expect(fromFactors.spec.options.alpha).toBe(fromRates.spec.options.alpha)
+    fromFactors.points.forEach((p, k) => {
+      const viaRate = new T(fromRates.points[k]!.y).plus(1).ln().times(p.x).neg()
+      expect(new T(p.y).ln().minus(viaRate).abs().lt('1e-37'), `t = ${p.x}`).toBe(true)
+    })
+  })
+
   it('refuses options it cannot use, saying why', () => {
     expect(engineErrorOf({ ...BASE, options: { alpha: 'fast' } }).message).toBe("Option alpha of smith-wilson: 'fast' is not a number (give a decimal string or 'auto').")
     expect(engineErrorOf({ ...BASE, options: { convergencePoint: '15' } }).message).toBe('Option convergencePoint of smith-wilson (15) must lie beyond the last liquid point 20.')
