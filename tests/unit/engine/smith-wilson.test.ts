@@ -98,5 +98,9 @@ describe('smith-wilson (EIOPA zero-coupon formulation)', () => {
     expect(engineErrorOf({ ...BASE, options: { convergencePoint: '15' } }).message).toBe('Option convergencePoint of smith-wilson (15) must lie beyond the last liquid point 20.')
     expect(engineErrorOf({ ...BASE, options: { alpha: '0' } }).message).toBe('Option alpha of smith-wilson must be above 0 (or auto).')
     expect(engineErrorOf({ ...BASE, kind: 'lapse' }).code).toBe('not-applicable')
+    // a convergence point just past the LLP on a curve far from the UFR: no alpha up to 100 gets within 1 bp there
+    const e = engineErrorOf({ ...BASE, options: { ufr: '0.08', convergencePoint: '20.01' } })
+    expect(e.code).toBe('calibration-failed')
+    expect(e.message).toBe('No alpha up to 100 brings the forward intensity at the convergence point within 1 basis point of ln(1 + UFR); give alpha or a later convergence point.')
   })
 })
