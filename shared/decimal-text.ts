@@ -1,10 +1,12 @@
 import Decimal from 'decimal.js'
+import { MAX_INPUT_DIGITS, TEXT_DIGITS } from './engine/contract'
 import type { ValueUnit } from './tables'
 
-// Decimal arithmetic for table values: inputs carry at most 40 significant digits, so dividing
-// or multiplying by 100 or 1000 at 80 digits is exact.
-export const D = Decimal.clone({ precision: 80, rounding: Decimal.ROUND_HALF_EVEN })
-export const MAX_SIGNIFICANT_DIGITS = 40
+// Decimal arithmetic for table values, at TEXT_DIGITS (2 x the engine's most digits; the reason is beside the constant in
+// shared/engine/contract.ts): scaling by 100 or 1000 is exact for any stored or filled value, and so is the difference of
+// two stored values.
+export const D = Decimal.clone({ precision: TEXT_DIGITS, rounding: Decimal.ROUND_HALF_EVEN })
+export const MAX_SIGNIFICANT_DIGITS = MAX_INPUT_DIGITS
 
 export const UNIT_SCALE: Record<ValueUnit, number> = { 'per-unit': 1, 'percent': 100, 'per-mille': 1000 }
 

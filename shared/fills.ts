@@ -9,6 +9,8 @@ export const EXTRAPOLATION_LABELS: Record<ExtrapolationRule, string> = {
   error: 'Refuse points outside the given range',
   flat: 'Hold the end value flat',
   linear: 'Extend the end piece as a straight line',
+  gompertz: 'Close old ages with a fitted Gompertz law (mortality)',
+  kannisto: 'Close old ages with a fitted Kannisto law (mortality)',
   method: 'Let the method carry on by its own rule',
 }
 

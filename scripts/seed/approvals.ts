@@ -1,7 +1,6 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize'
 import { appendAuditEvent } from '../../server/services/audit-writer'
 import { fill } from '../../server/engine/index'
-import { gridToEngine } from '../../server/services/fill-request'
 import type { SeededPeople } from './people'
 
 // Second checks of the demo: every version the table seed marks signed off is recorded as signed off by
@@ -25,7 +24,7 @@ export async function seedApprovals(db: Sequelize, t: Transaction, people: Seede
     if (v.name === CURVE) {
       const knots = await q<{ x: string; y: string }>('SELECT x::text AS x, y::text AS y FROM version_points WHERE version_id = :id ORDER BY x', { id: v.id })
       const grid = { from: '0.25', to: '30', step: '1/12' }
-      const result = fill({ knots, kind: 'spot-rate', method: 'pchip', options: {}, transform: 'none', extrapolation: 'error', ...gridToEngine(grid) })
+      const result = fill({ knots, kind: 'spot-rate', method: 'pchip', options: {}, transform: 'none', extrapolation: 'error', grid })
       const spec = { ...result.spec, bench: { grid, label: 'Monotone cubic (PCHIP)', pointsHash: v.content_hash } }
       await db.query(`UPDATE table_versions SET fill_spec = :spec::jsonb, fill_rationale = :why, fill_diagnostics = :diag::jsonb, fill_money = :money::jsonb,
           filled_by = :maker, filled_at = :filledAt WHERE id = :id`,

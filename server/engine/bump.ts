@@ -33,7 +33,7 @@ export function bumpReach(core: CoreFill): BumpReport | null {
   }
   let bumped
   try {
-    bumped = fitRequest(request, false)
+    bumped = fitRequest(request, null)
   }
   catch (error) {
     if (error instanceof EngineError) return null // the bumped value leaves the transform's domain (say q = 1 under logit)

@@ -1,6 +1,8 @@
-import { decimalContext, roundTo, type Dec } from './decimal'
+import { roundTo, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
-import { fill } from './fill'
+import { fillAt } from './fill'
+import { resolvePoints, type ResolvedPoints } from './grid'
+import { FLOAT_TINY, UNIT_ROUNDOFF, resolvePrecision, workingContext } from './precision'
 import type { CompareEntry, CompareResult, FillRequest, FillResult, MethodSpec, MoneyDifference, PairDifference } from './types'
 
 const MAX_METHODS = 12
@@ -46,6 +48,7 @@ export interface CompareOptions { baseline?: string }
 function* compareSteps(request: FillRequest, methods: MethodSpec[], options: CompareOptions): Generator<void, CompareResult> {
   if (!Array.isArray(methods) || methods.length === 0) throw new EngineError('invalid-request', 'Choose at least one method to compare.')
   if (methods.length > MAX_METHODS) throw new EngineError('invalid-request', `At most ${MAX_METHODS} methods can be compared at once.`)
+  const shared = sharedPoints(request)
   const seen = new Map<string, number>()
   const entries: CompareEntry[] = []
   for (const spec of methods) {
@@ -54,7 +57,7 @@ function* compareSteps(request: FillRequest, methods: MethodSpec[], options: Com
     seen.set(label, n)
     if (n > 1) label = `${label} #${n}`
     try {
-      const result = fill({ ...request, method: spec.method, options: spec.options ?? {}, transform: spec.transform ?? request.transform })
+      const result = fillAt({ ...request, method: spec.method, options: spec.options ?? {}, transform: spec.transform ?? request.transform }, shared?.points)
       entries.push({ label, ok: true as const, result })
     }
     catch (error) {
@@ -67,7 +70,8 @@ function* compareSteps(request: FillRequest, methods: MethodSpec[], options: Com
   const baseline = entries.find(e => e.label === baselineLabel || (e.ok && e.result.spec.method === baselineLabel))
   if (!baseline) throw new EngineError('invalid-request', `Baseline '${baselineLabel}' is not one of the compared methods.`)
   const done = entries.filter((e): e is CompareEntry & { ok: true } => e.ok)
-  const D = decimalContext((done[0]?.result.spec.workingPrecision) ?? 50)
+  // every method ran at the request's precision: differences are taken at its working precision (precision.ts)
+  const D = shared?.D ?? workingContext(done[0]?.result.spec.precision ?? resolvePrecision(undefined))
   const pairs: PairDifference[] = []
   const rough = done.map(e => Float64Array.from(e.result.points, p => Number(p.y)))
   for (let i = 0; i < done.length; i += 1) {
@@ -79,19 +83,35 @@ function* compareSteps(request: FillRequest, methods: MethodSpec[], options: Com
   return { baseline: baseline.label, entries, pairs, money }
 }
 
+/**
+ * The output points, resolved once for every method (they depend on the grid and the precision only). When the request's
+ * grid or precision is refused, null: each method's fill then reports the refusal itself.
+ */
+function sharedPoints(request: FillRequest): { D: DecimalCtor, points: ResolvedPoints } | null {
+  try {
+    const D = workingContext(resolvePrecision(request?.precision))
+    return { D, points: resolvePoints(D, request.grid, request.at) }
+  }
+  catch (error) {
+    if (error instanceof EngineError) return null
+    throw error
+  }
+}
+
 interface Side { label: string, result: FillResult, rough: Float64Array }
 
-// Bound on the error of |fl(a) - fl(b)| relative to |a| + |b| (IEEE 754 double: 2^-53 per conversion and subtraction).
-const FLOAT_SLACK = 4 * 2 ** -53
+// Bound on the error of |fl(a) - fl(b)| relative to |a| + |b|: two conversions and one subtraction, each within u (precision.ts),
+// and one more u of headroom for the absolute value and the comparison.
+const FLOAT_SLACK = 4 * UNIT_ROUNDOFF
 
 /**
  * max_k |y_a(x_k) - y_b(x_k)| over the common output points, exactly. Binary floating point only shortlists:
  * every point whose float difference could, within its rounding bound, reach the largest one is compared in decimal.
  */
-function pairDifference(D: ReturnType<typeof decimalContext>, a: Side, b: Side): PairDifference {
+function pairDifference(D: DecimalCtor, a: Side, b: Side): PairDifference {
   const n = a.result.points.length
   const gap = (k: number) => Math.abs(a.rough[k]! - b.rough[k]!)
-  const slack = (k: number) => FLOAT_SLACK * (Math.abs(a.rough[k]!) + Math.abs(b.rough[k]!)) + Number.MIN_VALUE * 2 ** 60
+  const slack = (k: number) => FLOAT_SLACK * (Math.abs(a.rough[k]!) + Math.abs(b.rough[k]!)) + FLOAT_TINY
   // a lower bound on the true largest difference
   let floor = 0
   for (let k = 0; k < n; k += 1) {
@@ -113,7 +133,7 @@ function pairDifference(D: ReturnType<typeof decimalContext>, a: Side, b: Side):
 }
 
 /** value - baseline, and 100 (value - baseline) / baseline when the baseline is not zero. */
-function moneyDifferences(D: ReturnType<typeof decimalContext>, base: FillResult, label: string, other: FillResult): MoneyDifference[] {
+function moneyDifferences(D: DecimalCtor, base: FillResult, label: string, other: FillResult): MoneyDifference[] {
   const P = base.spec.precision
   return base.money.figures.map((figure) => {
     const match = other.money.figures.find(f => f.key === figure.key)

@@ -52,13 +52,6 @@ export function rateOfIntensityExact(F: Dec, c: Compounding): Dec {
   return F.div(2).exp().minus(1).times(2)
 }
 
-/** Binary floating-point intensity, for ranking only (the checks report decimal figures). null outside the domain. */
-export function roughIntensity(r: number, c: Compounding): number | null {
-  if (c === 'continuous') return r
-  if (c === 'annual') return r > -1 ? Math.log1p(r) : null
-  return r > -2 ? 2 * Math.log1p(r / 2) : null
-}
-
 /** r(0) from the slope of ln P at t = 0: the instantaneous forward -d lnP/dt at 0 as a rate under c (limit of -ln P(t)/t, l'Hopital). */
 export function spotRateAtZero(slopeOfLogDiscount: Dec, c: Compounding = 'annual'): Dec {
   return rateOfIntensity(slopeOfLogDiscount.neg(), c)

@@ -1,12 +1,6 @@
 import Decimal from 'decimal.js'
 import { expSmall } from './exact'
 
-/** Extra digits carried while fitting and evaluating; results are rounded to the requested precision at the end. */
-export const GUARD_DIGITS = 10
-export const DEFAULT_PRECISION = 40
-export const MIN_PRECISION = 6
-export const MAX_PRECISION = 200
-
 export type Dec = Decimal
 export type DecimalCtor = Decimal.Constructor
 
@@ -14,7 +8,7 @@ const contexts = new Map<number, DecimalCtor>()
 
 /**
  * A Decimal constructor working at `digits` significant digits with half-even rounding.
- * One clone per precision, cached; the global Decimal configuration is never touched.
+ * One clone per precision, cached; the global Decimal configuration is never touched. Which digits: precision.ts.
  */
 export function decimalContext(digits: number): DecimalCtor {
   let ctor = contexts.get(digits)

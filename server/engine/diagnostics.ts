@@ -1,8 +1,9 @@
 import { roundTo, sign, type Dec } from './decimal'
 import { bumpReach } from './bump'
-import { intensityOf, rateInDomain, rateOfIntensityExact, roughIntensity } from './compounding'
+import { intensityOf, rateInDomain, rateOfIntensityExact } from './compounding'
 import { evaluateValues, type CoreFill } from './pipeline'
 import { hornerDerivative, type PiecewisePolynomial } from './piecewise'
+import { FLOAT_TINY, UNIT_ROUNDOFF as u } from './precision'
 import type { Compounding, CurvatureReport, Diagnostics, ForwardReport, Located, MonotonicityReport, RangeReport, Span, TableKind } from './types'
 
 const LIST_LIMIT = 20
@@ -23,9 +24,10 @@ export function computeDiagnostics(core: CoreFill): Diagnostics {
     monotonicity: monotonicity(core.knots.y, xs, ys),
     outOfRange: outOfRange(core.spec.kind, xs, ys),
     forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P, core.spec.compounding ?? 'annual') : null,
+    closure: core.closure?.report ?? null,
     bump: bumpReach(core),
     ...(core.pp.closedForm?.convergence ? { convergence: core.pp.closedForm.convergence() } : {}),
-    notes: [...core.notes, ...extrapolationNotes(core)],
+    notes: [...core.notes, ...(core.def.notes?.(core.knots.x, xs) ?? []), ...extrapolationNotes(core)],
   }
 }
 
@@ -166,12 +168,10 @@ function outOfRange(kind: TableKind, xs: Dec[], ys: Dec[]): RangeReport {
 /**
  * Forward rates between consecutive points: F = (ln P(t1) - ln P(t2)) / (t2 - t1) (continuous), reported under the curve's
  * compounding (annual f = exp(F) - 1; Hull, Options, Futures and Other Derivatives, ch. 4). ln P = -t intensity(r) for spot
- * rates (compounding.ts), ln P for discount factors. A decimal ln costs ~0.1 ms at 50 digits, so the scan over every pair runs in binary
- * floating point only to rank and locate (minimum, largest jump, sign); every figure reported, and the sign of any
- * forward within FLOAT_DOUBT of zero, is computed again in decimal.
+ * rates (compounding.ts), ln P for discount factors. A decimal ln costs ~0.1 ms at 50 digits, so the scan over every pair
+ * runs in binary floating point only to rank and locate (minimum, largest jump); every figure reported is computed again in
+ * decimal, and so is the sign of any forward whose float value lies within its error bound (floatDoubt) of zero.
  */
-const FLOAT_DOUBT = 1e-9
-
 function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number, c: Compounding): ForwardReport {
   const convention = `${c} compounding between consecutive filled points; located on continuously compounded forwards`
   const exactLnP = (k: number): Dec | null => {
@@ -181,22 +181,15 @@ function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number, c: C
     if (kind === 'spot-rate') return t.isZero() ? t : rateInDomain(y, c) ? intensityOf(y, c).times(t).neg() : null
     return y.gt(0) ? y.ln() : null
   }
-  const roughLnP = ys.map((y, k) => {
-    const t = xs[k]!.toNumber()
-    const v = y.toNumber()
-    if (kind === 'spot-rate') {
-      const F = roughIntensity(v, c)
-      return t === 0 ? 0 : F === null ? null : -t * F
-    }
-    return v > 0 ? Math.log(v) : null
-  })
-  const fwd: { rough: number, k: number }[] = [] // pair (k-1, k)
+  const rough = ys.map((y, k) => roughLogDiscount(kind, xs[k]!.toNumber(), y.toNumber(), c))
+  const fwd: { rough: number, doubt: number, k: number }[] = [] // pair (k-1, k)
   for (let k = 1; k < xs.length; k += 1) {
-    const a = roughLnP[k - 1]
-    const b = roughLnP[k]
+    const a = rough[k - 1]!
+    const b = rough[k]!
     const dt = xs[k]!.minus(xs[k - 1]!)
-    if (a == null || b == null || dt.isZero()) continue
-    fwd.push({ rough: (a - b) / dt.toNumber(), k })
+    if (a.value === null || b.value === null || dt.isZero()) continue
+    const F = (a.value - b.value) / dt.toNumber()
+    fwd.push({ rough: F, doubt: floatDoubt(a.error + b.error, dt.toNumber(), F), k })
   }
   if (fwd.length === 0) return { convention, minimum: null, negativeCount: 0, negatives: [], largestJump: null }
   const exactF = (k: number): Dec => exactLnP(k - 1)!.minus(exactLnP(k)!).div(xs[k]!.minus(xs[k - 1]!))
@@ -208,7 +201,7 @@ function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number, c: C
   let jumpSize = -1
   fwd.forEach((f, i) => {
     if (f.rough < min.rough) min = f
-    const negative = Math.abs(f.rough) > FLOAT_DOUBT ? f.rough < 0 : exactF(f.k).isNegative() && !exactF(f.k).isZero()
+    const negative = Math.abs(f.rough) > f.doubt ? f.rough < 0 : exactF(f.k).isNegative() && !exactF(f.k).isZero()
     if (negative) {
       negativeCount += 1
       if (negatives.length < LIST_LIMIT) negatives.push({ from: xs[f.k - 1]!.toString(), to: xs[f.k]!.toString() })
@@ -231,6 +224,43 @@ function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number, c: C
     negatives,
     largestJump,
   }
+}
+
+/**
+ * ln P(t) in binary floating point with a bound on its absolute error, under the standard model (precision.ts: each
+ * conversion and operation within u, log and log1p within 2u). Spot rate r, annual: L = -t log1p(r); converting r costs
+ * |r|/(1 + r) u in log1p(r) (its derivative is 1/(1 + r)), log1p itself 2u |log1p r|, t and the product 2u |L|.
+ * Semi-annual: L = -2t log1p(r/2) (r/2 exact): converting r costs |r|/(2 + r) u in log1p, times 2t. Continuous: L = -t r,
+ * the conversions and the product 3u |L|. Discount factor P: L = ln P; converting P costs u (d ln P = dP/P), the log
+ * 2u |L|. Doubled for headroom.
+ */
+function roughLogDiscount(kind: TableKind, t: number, v: number, c: Compounding): { value: number | null, error: number } {
+  if (kind === 'spot-rate') {
+    if (t === 0) return { value: 0, error: 0 }
+    if (c === 'continuous') {
+      const L = -t * v
+      return { value: L, error: 2 * u * 3 * Math.abs(L) + FLOAT_TINY }
+    }
+    if (c === 'semi-annual') {
+      if (!(v > -2)) return { value: null, error: 0 }
+      const L = -2 * t * Math.log1p(v / 2)
+      return { value: L, error: 2 * u * (2 * Math.abs(t) * Math.abs(v) / (2 + v) + 4 * Math.abs(L)) + FLOAT_TINY }
+    }
+    if (!(v > -1)) return { value: null, error: 0 }
+    const L = -t * Math.log1p(v)
+    return { value: L, error: 2 * u * (Math.abs(t) * Math.abs(v) / (1 + v) + 4 * Math.abs(L)) + FLOAT_TINY }
+  }
+  if (!(v > 0)) return { value: null, error: 0 }
+  const L = Math.log(v)
+  return { value: L, error: 2 * u * (1 + 2 * Math.abs(L)) + FLOAT_TINY }
+}
+
+/**
+ * Bound on |F_float - F| for F = (L_a - L_b) / dt: the two ln P errors over dt, plus the subtraction, the conversion of dt
+ * and the division (3u |F|), doubled for headroom (Higham 2002, 2.2, first-order terms; the second-order ones are below u^2).
+ */
+function floatDoubt(lnPErrors: number, dt: number, F: number): number {
+  return 2 * (lnPErrors / dt + 3 * u * Math.abs(F)) + FLOAT_TINY
 }
 
 function extrapolationNotes(core: CoreFill): string[] {

@@ -9,6 +9,9 @@ export type EngineErrorCode =
   | 'invalid-grid'
   | 'outside-knots'
   | 'transform-domain'
+  | 'unequal-spacing'
+  | 'invalid-group'
+  | 'ill-conditioned'
   | 'not-applicable'
   | 'calibration-failed'
 

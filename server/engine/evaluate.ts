@@ -2,7 +2,7 @@ import { roundTo, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { commonScale, pow10, roundScaled, toScaled } from './exact'
 import { endSlopes, horner, type PiecewisePolynomial } from './piecewise'
-import type { ExtrapolationRule } from './types'
+import { CLOSURE_RULES, type ExtrapolationRule } from './types'
 
 /** A grid whose points are exactly from + k * step (every addition exact): evaluated by exact forward differences. */
 export interface UniformGrid {
@@ -15,18 +15,22 @@ export interface UniformGrid {
  * that lies outside [x_min, x_max].
  */
 export function assertInside(pp: PiecewisePolynomial, xs: Dec[], rule: ExtrapolationRule, what: string, ascending = false, advice = "choose 'flat' or 'linear' extrapolation"): void {
-  if (rule !== 'error' || xs.length === 0) return
+  // the closure rules (gompertz, kannisto) continue a table upward only: below the first knot they refuse like 'error'
+  const closure = (CLOSURE_RULES as readonly string[]).includes(rule)
+  if ((rule !== 'error' && !closure) || xs.length === 0) return
   const lo = pp.breaks[0]!
-  const hi = pp.breaks[pp.breaks.length - 1]!
+  const hi = closure ? null : pp.breaks[pp.breaks.length - 1]!
   // ascending points: only the ends can be outside, so look at them before scanning
-  if (ascending && xs[0]!.gte(lo) && xs[xs.length - 1]!.lte(hi)) return
+  if (ascending && xs[0]!.gte(lo) && (!hi || xs[xs.length - 1]!.lte(hi))) return
   for (let k = 0; k < xs.length; k += 1) {
     const x = xs[k]!
-    if (x.lt(lo) || x.gt(hi)) {
+    if (x.lt(lo) || (hi && x.gt(hi))) {
       throw new EngineError(
         'outside-knots',
-        `${what} ${k + 1} (x = ${x.toString()}) lies outside the knots [${lo.toString()}, ${hi.toString()}] `
-        + `and extrapolation is 'error'; ${advice}, or keep the points inside the knots.`,
+        closure
+          ? `${what} ${k + 1} (x = ${x.toString()}) lies below the first given age ${lo.toString()}; extrapolation '${rule}' closes the table at old ages only. Start the grid at ${lo.toString()}.`
+          : `${what} ${k + 1} (x = ${x.toString()}) lies outside the knots [${lo.toString()}, ${hi!.toString()}] `
+            + `and extrapolation is 'error'; ${advice}, or keep the points inside the knots.`,
       )
     }
   }

@@ -1,7 +1,8 @@
 import { describeFailure, parseDecimal, quote, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import type { UniformGrid } from './evaluate'
-import type { GridSpec } from './types'
+import { pow10, toScaled } from './exact'
+import { FRACTION_STEP_PLACES, type GridSpec } from './types'
 
 export const MAX_POINTS = 250_000
 
@@ -25,46 +26,12 @@ function parseField(D: DecimalCtor, raw: unknown, name: string): Dec {
 }
 
 /**
- * The output abscissae: a regular grid from, from + step, ... up to and including `to` when it is reached,
- * built by repeated exact decimal addition of the step; or an explicit list `at` (any order, repeats allowed).
+ * The output abscissae: a regular grid from, from + step, ... up to and including `to` when it is reached (a decimal step
+ * by repeated exact decimal addition; a fraction step a/b by exact rational arithmetic, each point rounded to its places);
+ * or an explicit list `at` (any order, repeats allowed). Nothing is kept between calls: compare() resolves once and
+ * passes the result to each method's fill.
  */
-// compare() fills the same points with several methods: keep the last resolution (Decimals are immutable).
-let lastKey = ''
-let lastCtor: DecimalCtor | null = null
-let lastPoints: ResolvedPoints | null = null
-
 export function resolvePoints(D: DecimalCtor, grid: unknown, at: unknown): ResolvedPoints {
-  const key = memoKey(grid, at)
-  if (key !== null && lastCtor === D && lastKey === key && lastPoints) return lastPoints
-  const points = resolveFresh(D, grid, at)
-  if (key !== null) {
-    lastKey = key
-    lastCtor = D
-    lastPoints = points
-  }
-  return points
-}
-
-const NUMBER_TEXT = /^[-+]?[0-9.eE+-]+$/
-
-/** Drops the kept resolution (benchmarks time a cold grid with it). */
-export function forgetResolvedPoints(): void {
-  lastKey = ''
-  lastCtor = null
-  lastPoints = null
-}
-
-function memoKey(grid: unknown, at: unknown): string | null {
-  if (grid && typeof grid === 'object' && (at === undefined || at === null)) {
-    const g = grid as Record<string, unknown>
-    return typeof g.from === 'string' && typeof g.to === 'string' && typeof g.step === 'string' ? `g|${g.from}|${g.to}|${g.step}` : null
-  }
-  // only plain number text takes part, so two different lists can never share a key
-  if ((grid === undefined || grid === null) && Array.isArray(at) && at.every(v => typeof v === 'string' && NUMBER_TEXT.test(v))) return `a|${at.join(',')}`
-  return null
-}
-
-function resolveFresh(D: DecimalCtor, grid: unknown, at: unknown): ResolvedPoints {
   if ((grid === undefined || grid === null) === (at === undefined || at === null)) {
     throw new EngineError('invalid-grid', 'Give either a grid {from, to, step} or a list of points (at), not both and not neither.')
   }
@@ -73,14 +40,12 @@ function resolveFresh(D: DecimalCtor, grid: unknown, at: unknown): ResolvedPoint
     const g = grid as Record<string, unknown>
     const from = parseField(D, g.from, 'from')
     const to = parseField(D, g.to, 'to')
+    if (to.lt(from)) throw new EngineError('invalid-grid', `Grid 'to' (${to.toString()}) is below 'from' (${from.toString()}).`)
+    if (typeof g.step === 'string' && g.step.includes('/')) return fractionGrid(D, from, to, g.step, g.places)
+    if (g.places !== undefined && g.places !== null) throw new EngineError('invalid-grid', 'Grid places apply to a fraction step (like 1/12) only.')
     const step = parseField(D, g.step, 'step')
     if (!step.gt(0)) throw new EngineError('invalid-grid', `Grid step must be greater than 0; it is ${step.toString()}.`)
-    if (to.lt(from)) throw new EngineError('invalid-grid', `Grid 'to' (${to.toString()}) is below 'from' (${from.toString()}).`)
-    const count = to.minus(from).div(step).floor().plus(1)
-    if (count.gt(MAX_POINTS)) {
-      throw new EngineError('invalid-grid', `The grid has ${count.toString()} points; at most ${MAX_POINTS} are allowed. Use a larger step.`)
-    }
-    const n = count.toNumber()
+    const n = checkedCount(to.minus(from).div(step).floor().plus(1))
     const xs: Dec[] = new Array<Dec>(n)
     let x = from
     for (let k = 0; k < n; k += 1) {
@@ -119,4 +84,67 @@ function exactSteps(D: DecimalCtor, from: Dec, to: Dec, step: Dec): boolean {
   const largest = from.abs().gt(to.abs()) ? from.abs() : to.abs()
   const intDigits = largest.isZero() ? 0 : Math.max(largest.e + 1, 0)
   return intDigits + places <= D.precision
+}
+
+function checkedCount(count: Dec | bigint): number {
+  if (typeof count === 'bigint' ? count > BigInt(MAX_POINTS) : count.gt(MAX_POINTS)) {
+    throw new EngineError('invalid-grid', `The grid has ${count.toString()} points; at most ${MAX_POINTS} are allowed. Use a larger step.`)
+  }
+  return Number(count)
+}
+
+const FRACTION = /^\s*(\d{1,12})\s*\/\s*(\d{1,12})\s*$/
+const MAX_PLACES = 40
+
+/**
+ * A grid of fraction step a/b (1/12: monthly terms in years): point k is from + k a/b, computed as an exact fraction
+ * and rounded half-even to `places` decimals (default 12), so whole and half years stay exact and a saved fill
+ * re-runs digit for digit from {from, to, step, places}. The points k = 0, 1, ... with from + k a/b <= to (exactly).
+ * (Before engine 1.4.0 the server sent the same points as an explicit list; those saved specs still re-run as lists.)
+ */
+function fractionGrid(D: DecimalCtor, from: Dec, to: Dec, stepText: string, rawPlaces: unknown): ResolvedPoints {
+  const m = FRACTION.exec(stepText)
+  if (!m) throw new EngineError('invalid-grid', `Grid step ${quote(stepText)} is not a decimal or a fraction of two whole numbers like 1/12.`)
+  const a = BigInt(m[1]!)
+  const b = BigInt(m[2]!)
+  if (a === 0n || b === 0n) throw new EngineError('invalid-grid', `Grid step ${quote(stepText)} must be greater than 0, with a denominator above 0.`)
+  const places = rawPlaces === undefined || rawPlaces === null ? FRACTION_STEP_PLACES : rawPlaces
+  if (typeof places !== 'number' || !Number.isInteger(places) || places < 0 || places > MAX_PLACES) {
+    throw new EngineError('invalid-grid', `Grid places must be a whole number from 0 to ${MAX_PLACES}; got ${quote(places)}.`)
+  }
+  // a step below one unit of the last place would repeat points
+  if (a * pow10(places) < b) throw new EngineError('invalid-grid', `Grid step ${a}/${b} is below 10^-${places}, the grid's last decimal place; use a larger step or more places.`)
+  const s = Math.max(from.decimalPlaces(), to.decimalPlaces())
+  const F = toScaled(from, s)
+  const T = toScaled(to, s)
+  if (F === null || T === null) throw new EngineError('invalid-grid', 'Grid from and to have too many digits for a fraction step.')
+  const unit = pow10(s)
+  // from + k a/b <= to  <=>  k <= (T - F) b / (a 10^s)
+  const n = checkedCount((T - F) * b / (a * unit) + 1n)
+  // x_k 10^places = (F b + k a 10^s) 10^places / (b 10^s), rounded half-even
+  const den = b * unit
+  const scale = pow10(places)
+  const xs: Dec[] = new Array<Dec>(n)
+  for (let k = 0; k < n; k += 1) {
+    const num = (F * b + BigInt(k) * a * unit) * scale
+    xs[k] = new D(`${roundHalfEven(num, den).toString()}e-${places}`)
+  }
+  return {
+    xs,
+    grid: { from: from.toString(), to: to.toString(), step: `${a}/${b}`, places },
+    at: null,
+    ascending: true,
+    noun: 'Grid point',
+    uniform: null,
+  }
+}
+
+/** num / den (den > 0) rounded to the nearest integer, ties to even. */
+function roundHalfEven(num: bigint, den: bigint): bigint {
+  let q = num / den
+  let r = num % den
+  if (r < 0n) { q -= 1n; r += den }
+  const twice = 2n * r
+  if (twice > den || (twice === den && q % 2n !== 0n)) q += 1n
+  return q
 }

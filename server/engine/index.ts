@@ -5,12 +5,14 @@
 export { fill } from './fill'
 export { fill2d } from './fill2d'
 export { compare, compareAsync } from './compare'
+export { split } from './split'
+export { graduate } from './graduate'
 export { EngineError, type EngineErrorCode } from './errors'
 export { METHODS, type MethodListing } from './registry'
 export type { OptionDescriptor } from './methods/method'
 export { TRANSFORM_LISTING, type TransformListing } from './transform-listing'
 export { ENGINE_VERSION } from './version'
-export { DEFAULT_PRECISION, MIN_PRECISION, MAX_PRECISION } from './decimal'
+export { DEFAULT_PRECISION, MIN_PRECISION, MAX_PRECISION, GUARD_DIGITS } from './precision'
 export type * from './types'
 
 /** Caution to show beside every result (OWNER_RULES: safety). */

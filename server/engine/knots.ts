@@ -40,3 +40,16 @@ export function parseKnots(D: DecimalCtor, knots: unknown): ParsedKnots {
   }
   return { x: rows.map(r => r.x), y: rows.map(r => r.y), position: rows.map(r => r.position) }
 }
+
+/** Refuse unequal spacing (formulas on equally spaced values only), naming the first step that differs; returns the step. */
+export function assertEqualSpacing(who: string, what: string, x: Dec[], hint: string): Dec {
+  const h = x[1]!.minus(x[0]!)
+  for (let i = 2; i < x.length; i += 1) {
+    const hi = x[i]!.minus(x[i - 1]!)
+    if (!hi.eq(h)) {
+      throw new EngineError('unequal-spacing', `${who} needs equally spaced points (${what}): the step is ${h.toString()} from ${x[0]!.toString()} to ${x[1]!.toString()} `
+        + `but ${hi.toString()} from ${x[i - 1]!.toString()} to ${x[i]!.toString()}. ${hint}`)
+    }
+  }
+  return h
+}

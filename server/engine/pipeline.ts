@@ -1,7 +1,6 @@
-import {
-  DEFAULT_PRECISION, GUARD_DIGITS, MAX_PRECISION, MIN_PRECISION, decimalContext, quote, roundTo, type Dec, type DecimalCtor,
-} from './decimal'
+import { fitClosure, isClosure, resolveClosureOptions, type ClosureLaw } from './closure'
 import { curveMethodScale, isCurveKind, logDiscountTransform, resolveCompounding, spotRateAtZero } from './compounding'
+import { quote, roundTo, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { checkApplicability, extrapolationAdvice } from './applicability'
 import { assertInside, evaluateAny, evaluateAscending, type UniformGrid } from './evaluate'
@@ -10,13 +9,12 @@ import { parseKnots, type ParsedKnots } from './knots'
 import type { MethodDefinition } from './methods/method'
 import { resolveMoneyOptions } from './money-options'
 import type { PiecewisePolynomial } from './piecewise'
+import { resolvePrecision, workingContext, workingPrecision } from './precision'
 import { methodDefinition, resolveOptions } from './registry'
 import { TRANSFORMS, type TransformDefinition } from './transforms'
-import { EXTRAPOLATION_RULES, type ExtrapolationRule, type FillRequest, type Knot, type ResolvedSpec, type TableKind, type TransformId } from './types'
+import { EXTRAPOLATION_KINDS, EXTRAPOLATION_RULES, TABLE_KINDS, type ExtrapolationRule, type FillRequest, type Knot, type ResolvedSpec, type TableKind, type TransformId } from './types'
 import { ENGINE_VERSION } from './version'
 
-const KINDS: TableKind[] = ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other']
-const RULES: readonly ExtrapolationRule[] = EXTRAPOLATION_RULES
 
 /** A fitted request: what the evaluator, the diagnostics and the money view share. */
 export interface FittedRequest {
@@ -29,6 +27,8 @@ export interface FittedRequest {
   pp: PiecewisePolynomial
   points: ResolvedPoints
   notes: string[]
+  /** The old-age closure law (extrapolation gompertz or kannisto), fitted to the given q_x; null for other rules. */
+  closure: ClosureLaw | null
 }
 
 export interface CoreFill extends FittedRequest {
@@ -43,29 +43,27 @@ function pick<T extends string>(value: unknown, allowed: readonly T[], fallback:
   throw new EngineError('invalid-request', `Unknown ${what} ${quote(value)}; choose one of ${allowed.join(', ')}.`)
 }
 
-function resolvePrecision(value: unknown): number {
-  if (value === undefined || value === null) return DEFAULT_PRECISION
-  if (typeof value !== 'number' || !Number.isInteger(value) || value < MIN_PRECISION || value > MAX_PRECISION) {
-    throw new EngineError('invalid-request', `Precision must be a whole number of significant digits from ${MIN_PRECISION} to ${MAX_PRECISION}; got ${quote(value)}.`)
-  }
-  return value
-}
-
 const NO_POINTS: ResolvedPoints = { xs: [], grid: null, at: [], ascending: true, noun: 'Point', uniform: null }
 
-/** Resolve, validate and fit: everything up to, not including, evaluation at the output points. */
-export function fitRequest(request: FillRequest, withPoints = true): FittedRequest {
+/**
+ * Resolve, validate and fit: everything up to, not including, evaluation at the output points. `points`: the output
+ * points already resolved for this request's precision (compare resolves them once for every method), or null for a refit
+ * without points (a check that evaluates where it needs); by default they are resolved here.
+ */
+export function fitRequest(request: FillRequest, points?: ResolvedPoints | null): FittedRequest {
   if (typeof request !== 'object' || request === null) throw new EngineError('invalid-request', 'The request must be an object.')
   const def = methodDefinition(request.method)
-  const options = resolveOptions(def, request.options)
+  const precision = resolvePrecision(request.precision)
+  const D = workingContext(precision)
+  const options = resolveOptions(def, request.options, D)
   const transformId = pick<TransformId>(request.transform, Object.keys(TRANSFORMS) as TransformId[], 'none', 'transform')
-  const extrapolation = pick(request.extrapolation, RULES, 'error', 'extrapolation rule')
-  const kind = pick(request.kind, KINDS, 'other', 'kind')
+  const extrapolation = pick<ExtrapolationRule>(request.extrapolation, EXTRAPOLATION_RULES, 'error', 'extrapolation rule')
+  const kind = pick<TableKind>(request.kind, TABLE_KINDS, 'other', 'kind')
+  if (!EXTRAPOLATION_KINDS[extrapolation].includes(kind)) {
+    throw new EngineError('invalid-request', `Extrapolation '${extrapolation}' applies to ${EXTRAPOLATION_KINDS[extrapolation].join(', ')} tables; this table's kind is '${kind}'.`)
+  }
   const compounding = resolveCompounding(request.compounding, kind)
   checkApplicability(def, kind, extrapolation)
-  const precision = resolvePrecision(request.precision)
-  const workingPrecision = precision + GUARD_DIGITS
-  const D = decimalContext(workingPrecision)
   const money = resolveMoneyOptions(D, request.money)
   if (def.scale === 'log' && transformId !== 'none') {
     throw new EngineError('invalid-request', `Method ${def.id} already interpolates ln y; use transform 'none' with it, or method linear with transform 'log'.`)
@@ -77,8 +75,8 @@ export function fitRequest(request: FillRequest, withPoints = true): FittedReque
   if (knots.x.length < def.minPoints) {
     throw new EngineError('too-few-points', `Method ${def.id} needs at least ${def.minPoints} points; ${knots.x.length} ${knots.x.length === 1 ? 'was' : 'were'} given.`)
   }
-  // without points (a refit for a check): the caller evaluates where it needs, and the kept grid resolution stays
-  const points = withPoints ? resolvePoints(D, request.grid, request.at) : NO_POINTS
+  const output = points === undefined ? resolvePoints(D, request.grid, request.at) : points ?? NO_POINTS
+  const { closure, extrapolationOptions } = resolveClosure(request, extrapolation, kind, knots, D)
   const notes: string[] = []
   let x = knots.x
   const y = knots.y.map((value, i) => {
@@ -103,17 +101,30 @@ export function fitRequest(request: FillRequest, withPoints = true): FittedReque
     options: resolved,
     transform: transformId,
     extrapolation,
-    grid: points.grid,
-    at: points.at,
+    extrapolationOptions,
+    grid: output.grid,
+    at: output.at,
     precision,
-    workingPrecision,
+    workingPrecision: workingPrecision(precision),
     rounding: 'half-even',
     kind,
     ...(isCurveKind(kind) ? { compounding } : {}),
     money,
     knotCount: knots.x.length,
   }
-  return { spec, D, def, transform, knots, pp, points, notes }
+  return { spec, D, def, transform, knots, pp, points: output, notes, closure }
+}
+
+/** The closure law of a gompertz / kannisto request (mortality only), fitted to the given knots; options for no other rule. */
+function resolveClosure(request: FillRequest, rule: ExtrapolationRule, kind: TableKind, knots: ParsedKnots, D: DecimalCtor): { closure: ClosureLaw | null, extrapolationOptions: Record<string, string> | null } {
+  if (!isClosure(rule)) {
+    if (request.extrapolationOptions && Object.keys(request.extrapolationOptions).length) {
+      throw new EngineError('invalid-option', `extrapolationOptions apply to the closure rules gompertz and kannisto; extrapolation '${rule}' takes none.`)
+    }
+    return { closure: null, extrapolationOptions: null }
+  }
+  const options = resolveClosureOptions(D, request.extrapolationOptions, knots.x[knots.x.length - 1]!)
+  return { closure: fitClosure(rule, knots.x, knots.y, options, D), extrapolationOptions: options }
 }
 
 /**
@@ -129,12 +140,14 @@ export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = fal
   const raw = pp.closedForm
     ? pp.closedForm.evaluate(xs, digits)
     : ascending ? evaluateAscending(pp, xs, spec.extrapolation, digits, uniform) : evaluateAny(pp, xs, spec.extrapolation, digits)
+  if (fitted.closure) closeAbove(fitted.closure, xs, raw, P)
   if (transform.id === 'none') return raw
   const out: Dec[] = new Array<Dec>(xs.length)
   let atZero: Dec | null = null
   for (let k = 0; k < xs.length; k += 1) {
     const x = xs[k]!
-    if (transform.id === 'log-discount' && x.isZero()) {
+    if (fitted.closure && x.gt(fitted.closure.from)) out[k] = raw[k]!
+    else if (transform.id === 'log-discount' && x.isZero()) {
       atZero ??= logDiscountAtZero(fitted)
       out[k] = roundTo(atZero, P)
     }
@@ -143,6 +156,11 @@ export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = fal
     }
   }
   return out
+}
+
+/** Above the last given age the closure law's q (on the q scale, not the method's), rounded to the stated precision. */
+function closeAbove(closure: ClosureLaw, xs: Dec[], values: Dec[], P: number): void {
+  for (let k = 0; k < xs.length; k += 1) if (xs[k]!.gt(closure.from)) values[k] = roundTo(closure.q(xs[k]!), P)
 }
 
 /** r(0) under log-discount: the given rate if a knot sits at t = 0, else the limit from the slope of ln P at 0. */
@@ -155,8 +173,8 @@ function logDiscountAtZero(fitted: FittedRequest): Dec {
 }
 
 /** Fit and evaluate at the output points: the hot path (no diagnostics, no money). */
-export function fillCore(request: FillRequest): CoreFill {
-  const fitted = fitRequest(request)
+export function fillCore(request: FillRequest, points?: ResolvedPoints): CoreFill {
+  const fitted = fitRequest(request, points)
   const { xs, ascending, noun, uniform } = fitted.points
   // under log-discount the anchor at t = 0 is part of the curve, so [0, first knot) counts as inside
   assertInside(fitted.pp, xs, fitted.spec.extrapolation, noun, ascending, extrapolationAdvice(fitted.def))

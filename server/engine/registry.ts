@@ -1,7 +1,10 @@
-import { decimalContext, describeFailure, parseDecimal, quote } from './decimal'
+import { describeFailure, parseDecimal, quote, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { extrapolationRules } from './applicability'
 import { akima } from './methods/akima'
+import { beers } from './methods/beers'
+import { karupKing } from './methods/karup-king'
+import { sprague } from './methods/sprague'
 import { cubicClamped } from './methods/cubic-clamped'
 import { cubicNatural } from './methods/cubic-natural'
 import { cubicNotAKnot } from './methods/cubic-not-a-knot'
@@ -24,6 +27,9 @@ const DEFINITIONS: MethodDefinition[] = [
   cubicNotAKnot,
   pchip,
   akima,
+  karupKing,
+  sprague,
+  beers,
   monotoneConvex,
   smithWilson,
 ]
@@ -36,10 +42,10 @@ export const METHODS: readonly MethodListing[] = DEFINITIONS.map(d => ({
   id: d.id,
   label: d.label,
   minPoints: d.minPoints,
+  appliesTo: { kinds: [...(d.appliesTo?.kinds ?? TABLE_KINDS)], spacing: d.appliesTo?.spacing ?? 'any' },
   source: d.source,
   summary: d.summary,
   options: d.options.map(o => ({ ...o })),
-  appliesTo: d.appliesTo ? { ...d.appliesTo, kinds: [...d.appliesTo.kinds] } : { kinds: [...TABLE_KINDS], spacing: 'any' as const },
   extrapolation: extrapolationRules(d),
 }))
 
@@ -51,8 +57,11 @@ export function methodDefinition(id: unknown): MethodDefinition {
   return def
 }
 
-/** Validate the options of a method and fill in defaults; options that do not apply to the chosen settings are dropped. */
-export function resolveOptions(def: MethodDefinition, given: unknown): Record<string, string> {
+/**
+ * Validate the options of a method and fill in defaults; options that do not apply to the chosen settings are dropped.
+ * Decimal options are parsed in the request's working context D (parsing keeps every digit; precision.ts).
+ */
+export function resolveOptions(def: MethodDefinition, given: unknown, D: DecimalCtor): Record<string, string> {
   if (given !== undefined && given !== null && (typeof given !== 'object' || Array.isArray(given))) {
     throw new EngineError('invalid-option', `Options for ${def.id} must be an object of named values.`)
   }
@@ -64,7 +73,6 @@ export function resolveOptions(def: MethodDefinition, given: unknown): Record<st
       throw new EngineError('invalid-option', `Method ${def.id} has no option '${name}'; ${list}.`)
     }
   }
-  const D = decimalContext(50)
   const out: Record<string, string> = {}
   for (const opt of def.options) {
     const value = raw[opt.name] ?? opt.default

@@ -16,13 +16,15 @@ quadratic spline through the points; bc_type=([(2, 0.0)], None) is "zero curvatu
 piece", (None, [(2, 0.0)]) the mirror, ([(1, s)], None) / (None, [(1, s)]) a given end slope.
 Checked with SciPy 1.17.
 """
+import json
+import os
+import sys
 from decimal import Decimal
 
 import numpy as np
+import scipy
 from scipy.interpolate import (Akima1DInterpolator, CubicSpline, PchipInterpolator,
                                make_interp_spline)
-
-from fixture_io import write_fixture
 
 
 def fmt(v):
@@ -125,13 +127,20 @@ def compute(ds):
 
 
 def main():
-    write_fixture(
-        "scipy-fixture.json",
-        "SciPy scipy.interpolate and NumPy numpy.interp, float64, values printed with 17 significant digits",
-        "tests/reference/scipy_reference.py",
-        {"datasets": [compute(ds) for ds in DATASETS]},
-        f"{len(DATASETS)} datasets",
-    )
+    here = os.path.dirname(os.path.abspath(__file__))
+    out = sys.argv[1] if len(sys.argv) > 1 else os.path.join(here, "scipy-fixture.json")
+    fixture = {
+        "source": "SciPy scipy.interpolate and NumPy numpy.interp, float64, values printed with 17 significant digits",
+        "generator": "tests/reference/scipy_reference.py",
+        "scipy": scipy.__version__,
+        "numpy": np.__version__,
+        "python": sys.version.split()[0],
+        "datasets": [compute(ds) for ds in DATASETS],
+    }
+    with open(out, "w") as f:
+        json.dump(fixture, f, indent=1)
+        f.write("\n")
+    print(f"wrote {out}: {len(fixture['datasets'])} datasets, scipy {scipy.__version__}")
 
 
 if __name__ == "__main__":

@@ -1,6 +1,6 @@
 import type { Dec, DecimalCtor } from '../decimal'
 import type { PiecewisePolynomial } from '../piecewise'
-import type { MethodApplicability, MethodId, MethodListing, OptionDescriptor } from '../types'
+import type { MethodId, MethodListing, OptionDescriptor } from '../types'
 
 export type { OptionDescriptor }
 
@@ -13,7 +13,7 @@ export interface MethodDefinition extends Omit<MethodListing, 'appliesTo' | 'ext
    */
   scale?: 'log' | 'log-discount'
   /** Where the method applies (default: every kind, any spacing). */
-  appliesTo?: MethodApplicability
+  appliesTo?: Partial<MethodListing['appliesTo']>
   /**
    * The method's own extension beyond the knots (extrapolation 'method'): 'optional' accepts it beside the other rules,
    * 'required' accepts only 'method' (or 'error') beyond the knots. Absent: the method has none and 'method' is refused.
@@ -28,4 +28,6 @@ export interface MethodDefinition extends Omit<MethodListing, 'appliesTo' | 'ext
   calibrate?(x: Dec[], y: Dec[], options: Record<string, string>, D: DecimalCtor): Record<string, string>
   /** Fit pieces through sorted, distinct x with values y (already on the method's scale). Options are resolved. */
   fit(x: Dec[], y: Dec[], options: Record<string, string>, D: DecimalCtor): PiecewisePolynomial
+  /** Notes for the diagnostics about this fill (knots and output points sorted ascending, on the method's x axis). */
+  notes?(knots: Dec[], points: Dec[]): string[]
 }

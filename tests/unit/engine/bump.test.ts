@@ -2,12 +2,9 @@
 // 13(2), section 2: a change to one input should change the curve only nearby). Source of the check values: SciPy
 // (CubicSpline, PchipInterpolator, Akima1DInterpolator, make_interp_spline k=2) and numpy.interp, through
 // tests/reference/scipy_bump.py, run now when python3 with SciPy is on PATH, else its committed output scipy-bump.json.
-import { spawnSync } from 'node:child_process'
-import { readFileSync } from 'node:fs'
-import { dirname, resolve } from 'node:path'
-import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
 import { fill, type MethodId } from '~~/server/engine'
+import { loadReference } from './reference'
 
 type Span = { from: string, to: string, intervals: number } | null
 interface BumpFixture {
@@ -15,14 +12,7 @@ interface BumpFixture {
   datasets: { name: string, kind: 'spot-rate' | 'mortality', x: string[], y: string[], results: Record<string, { changed: Span, material: Span, ratio: number }> }[]
 }
 
-const here = dirname(fileURLToPath(import.meta.url))
-function loadFixture(): { fixture: BumpFixture, origin: string } {
-  const run = spawnSync('python3', [resolve(here, '../../reference/scipy_bump.py')], { encoding: 'utf8' })
-  if (run.status === 0) return { fixture: JSON.parse(run.stdout) as BumpFixture, origin: 'computed just now' }
-  return { fixture: JSON.parse(readFileSync(resolve(here, '../../reference/scipy-bump.json'), 'utf8')) as BumpFixture, origin: 'committed scipy-bump.json' }
-}
-const { fixture, origin } = loadFixture()
-console.info(`SciPy bump reference: ${origin} (SciPy ${fixture.scipy})`)
+const fixture = loadReference<BumpFixture>('scipy_bump.py', 'scipy-bump.json', 'SciPy bump reference')
 
 describe('locality of a bump, against SciPy', () => {
   for (const ds of fixture.datasets) {

@@ -12,8 +12,7 @@ interface Fixture {
   datasets: { name: string, x: string[], d: string[], z: string[][], gridX: string[], gridD: string[], results: { method: MethodId | { x: MethodId, d: MethodId }, transform: TransformId, scipy: string, values: string[] }[] }[]
 }
 
-const { fixture, origin } = loadReference<Fixture>('fill2d_reference.py', 'fill2d-fixture.json')
-console.info(`two-way SciPy reference: ${origin}; SciPy ${fixture.scipy}`)
+const fixture = loadReference<Fixture>('fill2d_reference.py', 'fill2d-fixture.json', 'Two-way SciPy reference')
 
 const REL = new T('1e-12')
 const ABS = new T('1e-14')

@@ -14,7 +14,7 @@ import { T, engineErrorOf, knots } from './helpers'
 const HW: FillRequest = { knots: knots([1, 2, 3, 4, 5], ['0.03', '0.04', '0.047', '0.06', '0.06']), method: 'monotone-convex', kind: 'spot-rate', compounding: 'continuous', at: ['1'] }
 
 function pieces(request: FillRequest): PiecewisePolynomial {
-  return fitRequest(request, false).pp
+  return fitRequest(request, null).pp
 }
 
 /** f(t) = -d ln P/dt from the right at t (the piece starting at or before t). */

@@ -1,0 +1,73 @@
+import { decimalContext, quote, type DecimalCtor } from './decimal'
+import { EngineError } from './errors'
+import { DEFAULT_PRECISION, MAX_PRECISION, MIN_PRECISION } from './types'
+
+/**
+ * The engine's one precision budget. Every context and every floating-point shortcut of the engine derives from here;
+ * docs/methods.md ("Precision budget") explains each line.
+ *
+ * A request states p significant digits (DEFAULT_PRECISION 40, MIN 6, MAX 200; the numbers live in the import-free
+ * shared/engine/contract.ts so shared code can read them). The engine carries W = p + GUARD_DIGITS digits and rounds
+ * every result once, half-even, to p. The guard digits are spent as follows (an error of k digits means a relative
+ * error up to 10^k units of the working precision, relative to the largest value on the scale where the step works):
+ *   - parsing: 0 (decimal.js keeps every digit of a decimal string; nothing is rounded);
+ *   - fit (solving for a method's coefficients, with up to 10,000 knots): at most FIT_DIGITS = 6. Each of the O(n)
+ *     operations on one coefficient's path rounds once (at most n <= 10^4 roundings, 4 digits); the linear systems are
+ *     diagonally dominant or have positive pivots (condition under 10, 1 digit); 1 digit headroom;
+ *   - evaluation of the pieces: 0 (exact, on scaled integers; evaluate.ts);
+ *   - inverse transform (exp, ln at W): at most TRANSFORM_DIGITS = 2 (exp and ln are faithfully rounded, and an absolute
+ *     error e in v becomes a relative error e in exp(v): |v| < 100 on any table costs 2 digits);
+ *   - graduation (graduate.ts): a band solve of (W + h K'K) u = W y loses up to log10(condition) digits, which a large h
+ *     makes large; iterative refinement (the residual computed exactly, the correction from the same factors) recovers them until the
+ *     correction is below 10^-(p + MARGIN_DIGITS + 1) of the largest value, or refuses as ill-conditioned;
+ *   - sums over a table in the money view (l_x products, annuity sums, up to 1,000 terms): at most 4, inside the same budget;
+ *   - what is left, MARGIN_DIGITS = 2, keeps the error before the final rounding below 10^-(p+2) of the scale, so each
+ *     result is within half a unit in its last place plus 10^-(p+2) (relative to the largest value on the fit's scale)
+ *     of what the method gives in exact arithmetic. tests/unit/engine/precision.test.ts checks this against runs at p + 60.
+ */
+export const FIT_DIGITS = 6
+export const TRANSFORM_DIGITS = 2
+export const MARGIN_DIGITS = 2
+export const GUARD_DIGITS = FIT_DIGITS + TRANSFORM_DIGITS + MARGIN_DIGITS
+
+export { DEFAULT_PRECISION, MAX_PRECISION, MIN_PRECISION }
+
+/** Digits the engine carries for a request of p significant digits. */
+export function workingPrecision(p: number): number {
+  return p + GUARD_DIGITS
+}
+
+/** The decimal context of a request of p significant digits. */
+export function workingContext(p: number): DecimalCtor {
+  return decimalContext(workingPrecision(p))
+}
+
+/** The stated precision of a request, validated (default DEFAULT_PRECISION). */
+export function resolvePrecision(value: unknown): number {
+  if (value === undefined || value === null) return DEFAULT_PRECISION
+  if (typeof value !== 'number' || !Number.isInteger(value) || value < MIN_PRECISION || value > MAX_PRECISION) {
+    throw new EngineError('invalid-request', `Precision must be a whole number of significant digits from ${MIN_PRECISION} to ${MAX_PRECISION}; got ${quote(value)}.`)
+  }
+  return value
+}
+
+/**
+ * Binary floating point appears only to rank and shortlist (compare's largest difference, the forward-rate scan), never in
+ * a reported figure. Its bounds derive from the unit roundoff of IEEE 754 binary64, u = 2^-53: every conversion of a
+ * decimal to a double and every basic operation is exact up to a factor (1 + d), |d| <= u (Higham, Accuracy and Stability
+ * of Numerical Algorithms, 2nd ed., 2002, section 2.2, the standard model). Math.log and Math.log1p are taken as within
+ * 2 units (fdlibm documents less than 1 ulp).
+ */
+export const UNIT_ROUNDOFF = 2 ** -53
+/** Below this magnitude a double may be subnormal and the standard model's relative bound fails: add it as an absolute slack. */
+export const FLOAT_TINY = Number.MIN_VALUE * 2 ** 60
+
+/**
+ * Test probabilities (the graduation's chi-square, signs and groups tests) are readings, reported to READING_DIGITS
+ * significant digits: the discrete ones from exact integer counts with one division in readingContext(), the chi-square
+ * tail in binary floating point (its series and continued fraction converge to about 1e-15, far below the digits shown).
+ */
+export const READING_DIGITS = 4
+export function readingContext(): DecimalCtor {
+  return decimalContext(READING_DIGITS + GUARD_DIGITS)
+}
