@@ -1,13 +1,14 @@
 import { affineFill } from './affine-weights'
 import { checkApplicability } from './applicability'
-import { DEFAULT_PRECISION, GUARD_DIGITS, MAX_PRECISION, MIN_PRECISION, decimalContext, exp, quote, roundTo, type Dec, type DecimalCtor } from './decimal'
+import { exp, quote, roundTo, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { evaluateAscending, type UniformGrid } from './evaluate'
 import { assertAxisInside, parseKnotGrid, parsePairs, resolveAxis, type KnotGrid } from './grid2d'
 import type { MethodDefinition } from './methods/method'
+import { GUARD_DIGITS, MAX_PRECISION, MIN_PRECISION, resolvePrecision, workingContext, workingPrecision } from './precision'
 import { methodDefinition, resolveOptions } from './registry'
 import { TRANSFORMS, type TransformDefinition } from './transforms'
-import { EXTRAPOLATION_RULES, TABLE_KINDS, type ExtrapolationRule, type Fill2DRequest, type Fill2DResult, type Knot2D, type TableKind, type TransformId } from './types'
+import { CLOSURE_RULES, EXTRAPOLATION_RULES, TABLE_KINDS, type ExtrapolationRule, type Fill2DRequest, type Fill2DResult, type Knot2D, type TableKind, type TransformId } from './types'
 import { ENGINE_VERSION } from './version'
 
 /** Transforms that do not depend on the abscissa, so they apply to a two-way table as they do to a column. */
@@ -15,13 +16,13 @@ const TRANSFORMS_2D: TransformId[] = ['none', 'log', 'logit', 'cumulative-hazard
 
 interface Axis { def: MethodDefinition, options: Record<string, string> }
 
-function axisOf(raw: unknown, options: unknown, kind: TableKind, rule: ExtrapolationRule): Axis {
+function axisOf(raw: unknown, options: unknown, kind: TableKind, rule: ExtrapolationRule, F: DecimalCtor): Axis {
   const def = methodDefinition(raw)
   if (def.scale === 'log-discount' || def.calibrate) {
     throw new EngineError('not-applicable', `Method ${def.id} fills a curve of one variable and is not offered for two-way fills.`)
   }
   checkApplicability(def, kind, rule)
-  return { def, options: resolveOptions(def, options) }
+  return { def, options: resolveOptions(def, options, F) }
 }
 
 function pick<T extends string>(value: unknown, allowed: readonly T[], fallback: T, what: string): T {
@@ -49,7 +50,8 @@ function fillLine(axis: Axis, x: Dec[], y: Dec[], xs: Dec[], uniform: UniformGri
  * Two-way fill by tensor product (de Boor, A Practical Guide to Splines, 2001, ch. XVII, tensor-product interpolation):
  * along x for every given d, then along d for every wanted x. With the same linear method on both axes (linear, the cubic
  * splines, the quadratic spline) the order does not matter; with a nonlinear one (pchip, akima) it can, and it is always
- * x first. Intermediate values carry 10 guard digits. The given points are then read back through the same passes.
+ * x first. The pass along x is a fill stated at the working precision W (intermediate values keep every guard digit), so
+ * it runs in workingContext(W) (precision.ts). The given points are then read back through the same passes.
  */
 export function fill2d(request: Fill2DRequest): Fill2DResult {
   const { result, passes } = fill2dCore(request)
@@ -59,19 +61,22 @@ export function fill2d(request: Fill2DRequest): Fill2DResult {
 /** The fill without its check (what the benchmark times as fit and evaluation). */
 export function fill2dCore(request: Fill2DRequest): { result: Omit<Fill2DResult, 'diagnostics'>, passes: Passes } {
   if (typeof request !== 'object' || request === null) throw new EngineError('invalid-request', 'The request must be an object.')
-  const P = request.precision ?? DEFAULT_PRECISION
-  if (typeof P !== 'number' || !Number.isInteger(P) || P < MIN_PRECISION || P > MAX_PRECISION - GUARD_DIGITS) {
+  const P = resolvePrecision(request.precision)
+  // the pass along x is stated at the working precision W (precision.ts), which must itself be a precision a fill takes
+  if (P > MAX_PRECISION - GUARD_DIGITS) {
     throw new EngineError('invalid-request', `Precision must be a whole number of significant digits from ${MIN_PRECISION} to ${MAX_PRECISION - GUARD_DIGITS} for a two-way fill; got ${quote(P)}.`)
   }
+  const F = workingContext(workingPrecision(P))
   const kind = pick(request.kind, TABLE_KINDS, 'other', 'kind')
   const rule = pick(request.extrapolation, EXTRAPOLATION_RULES, 'error', 'extrapolation rule')
+  if ((CLOSURE_RULES as readonly string[]).includes(rule)) {
+    throw new EngineError('not-applicable', `Extrapolation '${rule}' closes a one-way mortality table at old ages; a two-way fill does not take it. Choose 'error', 'flat' or 'linear'.`)
+  }
   const transform = TRANSFORMS[pick(request.transform, TRANSFORMS_2D, 'none', 'transform')]
   const perAxis = typeof request.method === 'object' && request.method !== null
   const m = request.method as { x?: { method?: unknown, options?: unknown }, d?: { method?: unknown, options?: unknown } }
-  const ax = perAxis ? axisOf(m.x?.method, m.x?.options, kind, rule) : axisOf(request.method, request.options, kind, rule)
-  const ad = perAxis ? axisOf(m.d?.method, m.d?.options, kind, rule) : ax
-  const inner = P + GUARD_DIGITS
-  const F = decimalContext(inner + GUARD_DIGITS)
+  const ax = perAxis ? axisOf(m.x?.method, m.x?.options, kind, rule, F) : axisOf(request.method, request.options, kind, rule, F)
+  const ad = perAxis ? axisOf(m.d?.method, m.d?.options, kind, rule, F) : ax
   const grid: KnotGrid = parseKnotGrid(F, request.knots)
   const z = grid.values.map((row, i) => row.map((y, j) => {
     if (!transform.accepts(grid.xs[i]!, y)) {
@@ -111,7 +116,7 @@ interface Passes { ax: Axis, ad: Axis, grid: KnotGrid, z: Dec[][], rule: Extrapo
 /** Along x for every given d at every wanted x, then along d for every wanted x: values[k][j] at (xs[k], ds[k][j]), rounded to P. */
 function runPasses(r: Passes, wanted: Pick<Wanted, 'xs' | 'ds' | 'uniformX' | 'uniformD'>): Dec[][] {
   const { grid, z, rule, transform, P, F } = r
-  const inner = P + GUARD_DIGITS
+  const inner = workingPrecision(P)
   const columns = grid.ds.map((_, j) => fillLine(r.ax, grid.xs, z.map(row => row[j]!), wanted.xs, wanted.uniformX, rule, inner, F))
   // without a transform the last pass rounds to P itself; with one, its values are mapped back and then rounded
   const plain = transform.id === 'none'

@@ -1,7 +1,8 @@
-import { GUARD_DIGITS, roundTo, type Dec, type DecimalCtor } from '../decimal'
+import { roundTo, type Dec, type DecimalCtor } from '../decimal'
 import { EngineError } from '../errors'
 import type { ClosedForm } from '../piecewise'
-import { SOLVE_GUARD_DIGITS, fitWilson, forwardIntensity, inContext, wilsonG, wilsonLnP, type WilsonFit } from '../smith-wilson'
+import { GUARD_DIGITS, denseSolvePrecision, searchPrecision } from '../precision'
+import { fitWilson, forwardIntensity, inContext, wilsonG, wilsonLnP, type WilsonFit } from '../smith-wilson'
 import { CURVE_KINDS, type ConvergenceReport } from '../types'
 import type { MethodDefinition } from './method'
 
@@ -11,8 +12,6 @@ const TOLERANCE = '0.0001'
 /** The alpha search runs on multiples of this step (the search tolerance): alpha is found to 6 decimals. */
 export const ALPHA_STEP = '0.000001'
 const ALPHA_CEILING = 100
-/** Digits the alpha search runs at before its answer is confirmed at the full precision. */
-const SEARCH_DIGITS = 30
 
 interface Setting { u: Dec[], lnP: Dec[], omega: Dec, cp: Dec, digits: number }
 
@@ -41,7 +40,7 @@ function gapAt(s: Setting, alpha: Dec): { fit: WilsonFit, forward: Dec, gap: Dec
  * 1 bp: alpha = 0.05 if it meets the criterion, else doubling from 0.1 until one does, then bisection on the grid between
  * the last alpha that failed and the first that met it (EIOPA technical documentation: alpha >= 0.05, convergence within
  * 1 bp at the convergence point). Bisection assumes the gap falls as alpha grows between the two, which it does on curves
- * seen in practice; the report shows the check one grid step below the result. The search runs at SEARCH_DIGITS and its
+ * seen in practice; the report shows the check one grid step below the result. The search runs at searchPrecision() (precision.ts) and its
  * answer is confirmed at the full precision (met at alpha, not met one step lower); if it is not, the search runs again at
  * the full precision.
  */
@@ -68,7 +67,7 @@ function calibrateAlpha(s: Setting, D: DecimalCtor): Dec {
     }
     return hi
   }
-  let k = search(Math.min(SEARCH_DIGITS, s.digits))
+  let k = search(Math.min(searchPrecision(), s.digits))
   const confirmed = meets(k, s.digits) && (k === floor || !meets(k - 1, s.digits))
   if (!confirmed) k = search(s.digits)
   return step.times(k)
@@ -91,7 +90,7 @@ function settingOf(x: Dec[], y: Dec[], options: Record<string, string>, D: Decim
   if (!cp.gt(llp)) throw new EngineError('invalid-option', `Option convergencePoint of smith-wilson (${cp.toString()}) must lie beyond the last liquid point ${llp.toString()}.`)
   const ufr = new D(options.ufr ?? '0.035')
   if (!ufr.gt(-1)) throw new EngineError('invalid-option', 'Option ufr of smith-wilson must be above -1 (an annual rate).')
-  return { ...usedTerms(x, y, llp), omega: ufr.plus(1).ln(), cp, llp, digits: D.precision + SOLVE_GUARD_DIGITS }
+  return { ...usedTerms(x, y, llp), omega: ufr.plus(1).ln(), cp, llp, digits: denseSolvePrecision(D.precision) }
 }
 
 /** The convergence check at alpha, and one step of the search grid lower (figures at the stated precision). */
