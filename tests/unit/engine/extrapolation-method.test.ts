@@ -28,8 +28,8 @@ describe("extrapolation 'method'", () => {
   it('lists, for each method, the rules it takes and the kinds it fills', () => {
     const by = Object.fromEntries(METHODS.map(m => [m.id, m]))
     expect(by['smith-wilson']!.extrapolation).toEqual(['error', 'method'])
-    expect(by['monotone-convex']!.extrapolation).toEqual(['error', 'flat', 'linear'])
-    expect(by['cubic-natural']!.extrapolation).toEqual(['error', 'flat', 'linear'])
+    expect(by['monotone-convex']!.extrapolation).toEqual(['error', 'flat', 'linear', 'gompertz', 'kannisto'])
+    expect(by['cubic-natural']!.extrapolation).toEqual(['error', 'flat', 'linear', 'gompertz', 'kannisto'])
     expect(by['smith-wilson']!.appliesTo).toEqual({ kinds: ['spot-rate', 'discount-factor'], spacing: 'any' })
     expect(by['monotone-convex']!.appliesTo).toEqual({ kinds: ['spot-rate', 'discount-factor'], spacing: 'any' })
     expect(by['pchip']!.appliesTo).toEqual({ kinds: ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other'], spacing: 'any' })
