@@ -1,8 +1,8 @@
 #!/usr/bin/env python3
 """Independent reference values for the engine's curve methods (tests/unit/engine/curve-reference.test.ts).
 
-Usage: python3 tests/reference/curves_reference.py [output.json]
-(default output: tests/reference/curves-fixture.json next to this script).
+Usage: python3 tests/reference/curves_reference.py           (prints the fixture JSON)
+       python3 tests/reference/curves_reference.py --write   (also writes curves-fixture.json beside this script)
 
 Written from the papers' formulas in NumPy/SciPy float64, not from the engine's code:
 
@@ -19,12 +19,14 @@ Written from the papers' formulas in NumPy/SciPy float64, not from the engine's 
 Every value is printed with 17 significant digits.
 """
 import math
+import sys
 import warnings
 
 import numpy as np
+import scipy
 from scipy.integrate import IntegrationWarning, quad
 
-from fixture_io import write_fixture
+from fixture_io import emit
 
 # quad reports round-off near 1e-16 on these polynomial pieces; the values are good to about that
 warnings.simplefilter("ignore", IntegrationWarning)
@@ -250,13 +252,13 @@ def sw_case(ds):
 
 
 def main():
-    write_fixture(
-        "curves-fixture.json",
-        "independent NumPy/SciPy implementations from Hagan and West (2006) and the EIOPA Smith-Wilson formulas, float64",
-        "tests/reference/curves_reference.py",
-        {"monotoneConvex": [mc_case(ds) for ds in MC_DATASETS], "smithWilson": [sw_case(ds) for ds in SW_DATASETS]},
-        f"{len(MC_DATASETS)} monotone-convex and {len(SW_DATASETS)} smith-wilson datasets",
-    )
+    emit("curves-fixture.json", {
+        "source": "independent NumPy/SciPy implementations from Hagan and West (2006) and the EIOPA Smith-Wilson formulas, float64",
+        "generator": "tests/reference/curves_reference.py",
+        "scipy": scipy.__version__, "numpy": np.__version__, "python": sys.version.split()[0],
+        "monotoneConvex": [mc_case(ds) for ds in MC_DATASETS],
+        "smithWilson": [sw_case(ds) for ds in SW_DATASETS],
+    })
 
 
 if __name__ == "__main__":

@@ -1,8 +1,8 @@
 #!/usr/bin/env python3
 """Reference values from SciPy for the engine's two-way (tensor-product) fill (tests/unit/engine/fill2d.test.ts).
 
-Usage: python3 tests/reference/fill2d_reference.py [output.json]
-(default output: tests/reference/fill2d-fixture.json next to this script).
+Usage: python3 tests/reference/fill2d_reference.py           (prints the fixture JSON)
+       python3 tests/reference/fill2d_reference.py --write   (also writes fill2d-fixture.json beside this script)
 
 Which SciPy call matches which engine request (both axes unless said):
 - cubic-not-a-knot: RectBivariateSpline(x, d, Z, kx=3, ky=3, s=0) (FITPACK's interpolating spline, knots at the data
@@ -18,14 +18,16 @@ Which SciPy call matches which engine request (both axes unless said):
 - transform log with cubic-not-a-knot: exp of RectBivariateSpline on ln Z.
 Every value is printed with 17 significant digits.
 """
+import sys
 from decimal import Decimal
 
 import numpy as np
+import scipy
 from scipy.interpolate import (Akima1DInterpolator, CubicSpline, RectBivariateSpline, RegularGridInterpolator,
                                make_interp_spline)
 from scipy.sparse.linalg import spsolve
 
-from fixture_io import write_fixture
+from fixture_io import emit
 
 
 def fmt(v):
@@ -93,13 +95,12 @@ def compute(ds):
 
 
 def main():
-    write_fixture(
-        "fill2d-fixture.json",
-        "SciPy RectBivariateSpline, RegularGridInterpolator and successive 1-D fits, float64",
-        "tests/reference/fill2d_reference.py",
-        {"datasets": [compute(ds) for ds in DATASETS]},
-        f"{len(DATASETS)} datasets",
-    )
+    emit("fill2d-fixture.json", {
+        "source": "SciPy RectBivariateSpline, RegularGridInterpolator and successive 1-D fits, float64",
+        "generator": "tests/reference/fill2d_reference.py",
+        "scipy": scipy.__version__, "numpy": np.__version__, "python": sys.version.split()[0],
+        "datasets": [compute(ds) for ds in DATASETS],
+    })
 
 
 if __name__ == "__main__":
