@@ -11,9 +11,6 @@ import { EngineError } from './errors'
 // H(t, u) = alpha min - e^{-alpha max} sinh(alpha min), this is P(t) = e^{-omega t} G(t), G(t) = 1 + sum_j b_j H(t, u_j),
 // with H b = m e^{omega u} - 1: the same system without the exponential weights (H is symmetric).
 
-/** Extra digits the Wilson system is solved with (it can be ill-conditioned when terms are close): see docs/methods.md. */
-export const SOLVE_GUARD_DIGITS = 20
-
 /** G(t) = A + B t + C e^{-alpha t} + D sinh(alpha t) on [u_k, u_{k+1}) (u_0 = 0; the last piece has no end). */
 interface WilsonPiece { A: Dec, B: Dec, C: Dec, D: Dec }
 
@@ -125,7 +122,11 @@ export function forwardIntensity(fit: WilsonFit, t: Dec): Dec {
   return fit.omega.minus(G1.div(G))
 }
 
-/** ln P(t) = -omega t + ln G(t), rounded to `digits`. */
+/** ln P(t) = -omega t + ln G(t), rounded to `digits`. Refuses a t where the fitted discount factor is not positive. */
 export function wilsonLnP(fit: WilsonFit, t: Dec, digits: number): Dec {
-  return roundTo(ln(wilsonValue(fit, t)).minus(fit.omega.times(t)), digits)
+  const G = wilsonValue(fit, t)
+  if (!G.gt(0)) {
+    throw new EngineError('transform-domain', `The Smith-Wilson curve through these points has a discount factor of zero or below at t = ${t.toString()}, so no spot rate exists there; the given rates change too sharply between close terms for this alpha (try a larger alpha or another method).`)
+  }
+  return roundTo(ln(G).minus(fit.omega.times(t)), digits)
 }

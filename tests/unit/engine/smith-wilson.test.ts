@@ -103,4 +103,12 @@ describe('smith-wilson (EIOPA zero-coupon formulation)', () => {
     expect(e.code).toBe('calibration-failed')
     expect(e.message).toBe('No alpha up to 100 brings the forward intensity at the convergence point within 1 basis point of ln(1 + UFR); give alpha or a later convergence point.')
   })
+
+  it('refuses, by name, a term where the fitted discount factor is not positive (it once crashed in exp)', () => {
+    // rates that jump between 0.00001 % and 10 % within 0.06 years (found by the precision property test)
+    const wild = knots([0, 0.01, 0.04, 0.05, 0.06, 8.46, 22.61], ['0.0000001', '0.0000001', '0.0135656', '0.0000001', '0.0999047', '0.0193966', '0.0000001'])
+    const e = engineErrorOf({ knots: wild, method: 'smith-wilson', kind: 'spot-rate', at: ['1', '3', '10'] })
+    expect(e.code).toBe('transform-domain')
+    expect(e.message).toMatch(/^The Smith-Wilson curve through these points has a discount factor of zero or below at t = \d/)
+  })
 })
