@@ -64,11 +64,13 @@ if (t4 - t0 > 10_000 || peak > 400e6) process.exitCode = 1
 
 // Optional end-to-end run over HTTP (upload -> preview -> commit with database writes) against a running
 // built server: KW_BENCH_BASE_URL=http://127.0.0.1:3400 [KW_BENCH_SERVER_PID=<pid> for the server's peak RSS].
+// Changes name the app's origin as a browser does (the server refuses others); the server's NUXT_PUBLIC_BASE_URL must match.
 const base = process.env.KW_BENCH_BASE_URL
 if (base) {
-  const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'x-forwarded-for': '10.99.0.1' }, body: JSON.stringify({ email: 'priya.raman@larkspur.example', password: 'knotwork-demo-2026' }) })
+  const origin = new URL(base).origin
+  const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'x-forwarded-for': '10.99.0.1', origin }, body: JSON.stringify({ email: 'priya.raman@larkspur.example', password: 'knotwork-demo-2026' }) })
   const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
-  const headers = { cookie, 'x-forwarded-for': '10.99.0.1', 'accept': 'application/json' }
+  const headers = { cookie, 'x-forwarded-for': '10.99.0.1', 'accept': 'application/json', origin }
   const form = new FormData()
   form.append('file', new Blob([new Uint8Array(file)]), 'bench.xlsx')
   const h0 = performance.now()

@@ -3,6 +3,7 @@ import { DEFAULT_BENCH_METHODS, MAX_BENCH_METHODS } from '#shared/fills'
 import type { CompareInput, MethodChoice } from '#shared/schemas/fills'
 import type { CompareResponseDto, MethodListing, StoredFillSpec } from '#shared/types/fills'
 import type { Axis, TableKind } from '#shared/tables'
+import { methodWords } from '#shared/fill-words'
 
 /** One method on the bench, with its option values as the form holds them. */
 export interface BenchMethod { key: number, method: MethodId, options: Record<string, string> }
@@ -20,12 +21,9 @@ export function newBenchMethod(listing: MethodListing): BenchMethod {
   return { key: nextKey++, method: listing.id, options: Object.fromEntries(listing.options.map(o => [o.name, o.default])) }
 }
 
-/** A readable name for a method with its non-default options ("Quadratic spline · right-zero-curvature"). */
+/** A readable name for a method with its non-default options ("Quadratic spline · Straight last piece"). */
 export function benchLabel(m: BenchMethod, listing: MethodListing | undefined): string {
-  const changed = (listing?.options ?? []).filter(o => m.options[o.name] !== undefined && m.options[o.name] !== o.default
-    && (!o.appliesWhen || Object.entries(o.appliesWhen).every(([k, v]) => v.includes(m.options[k] ?? ''))))
-  const base = listing?.label ?? m.method
-  return changed.length ? `${base} · ${changed.map(o => (o.type === 'enum' ? m.options[o.name] : `${o.name} ${m.options[o.name]}`)).join(', ')}` : base
+  return methodWords(listing, m.method, m.options)
 }
 
 /** Defaults from the table: every whole age or policy year between the first and last point; monthly terms for a curve. */
@@ -94,6 +92,7 @@ export function useCompareRun(url: () => string) {
   /** Methods filled so far, as the server reports them while it runs (null until it first answers). */
   const progress = ref<{ done: number, total: number } | null>(null)
   let controller: AbortController | null = null
+  let runUrl: string | null = null
   let timer: ReturnType<typeof setInterval> | undefined
   let poller: ReturnType<typeof setInterval> | undefined
 
@@ -115,6 +114,7 @@ export function useCompareRun(url: () => string) {
     const id = ++started.value
     const begun = performance.now()
     const runId = crypto.randomUUID()
+    runUrl = url().replace(/^(\/api\/orgs\/[^/]+)\/.*$/, `$1/runs/${runId}`)
     running.value = true
     error.value = null
     elapsedMs.value = 0
@@ -145,7 +145,11 @@ export function useCompareRun(url: () => string) {
       }
     }
   }
-  function cancel() { controller?.abort() }
+  /** Closing the connection cancels the run; the explicit cancel also reaches it through a proxy that keeps connections open. */
+  function cancel() {
+    controller?.abort()
+    if (runUrl) $fetch(runUrl, { method: 'DELETE' }).catch(() => {})
+  }
   onBeforeUnmount(() => { controller?.abort(); clearInterval(timer); clearInterval(poller) })
   return { running, elapsedMs, error, response, started, answered, progress, run, cancel }
 }

@@ -3,11 +3,16 @@
 # Idempotent: reuses a running or stopped cluster, clears a stale pid file, picks a free port.
 # Usage: scripts/db.sh [database-name]   (default: knotwork)
 # Writes .data/pg.env with KW_PG_PORT, KW_PG_HOST and the role passwords.
+# KW_PG_DIR / KW_PG_ENV (relative to .data/) select another cluster, e.g. the reliability suite's own
+# (KW_PG_DIR=pg-reliability KW_PG_ENV=pg-reliability.env), which it may kill without disturbing this one.
+# Durability: fsync, synchronous_commit and full_page_writes are always on (flags on the command line, which
+# override postgresql.conf and postgresql.auto.conf, and ALTER SYSTEM for a cluster started by hand); a running
+# cluster started with any of them off (older versions of this script did) is restarted with them on.
 set -euo pipefail
 root="$(cd "$(dirname "$0")/.." && pwd)"
 data="$root/.data"
-pgdata="$data/pg"
-envfile="$data/pg.env"
+pgdata="$data/${KW_PG_DIR:-pg}"
+envfile="$data/${KW_PG_ENV:-pg.env}"
 dbname="${1:-knotwork}"
 log() { printf '[db] %s\n' "$*" >&2; }
 
@@ -67,7 +72,27 @@ ENV
   . "$envfile"
 fi
 
-running() { as_pg "$bin/pg_ctl" -D "$pgdata" status >/dev/null 2>&1; }
+running() {
+  as_pg "$bin/pg_ctl" -D "$pgdata" status >/dev/null 2>&1 || return 1
+  # a postmaster killed a moment ago lingers as a zombie until init reaps it, and pg_ctl still calls that running
+  local pid state
+  pid="$(head -1 "$pgdata/postmaster.pid" 2>/dev/null || true)"
+  state="$(sed 's/^.*) //' "/proc/$pid/stat" 2>/dev/null | cut -d' ' -f1 || true)"
+  [ -n "$pid" ] && [ -n "$state" ] && [ "$state" != "Z" ] # gone by now, or a zombie: not running
+}
+psql_su() { as_pg psql -X -q -v ON_ERROR_STOP=1 -h "$pgdata" -p "$KW_PG_PORT" -U postgres -d postgres "$@"; }
+
+# A commit acknowledged to the app must survive SIGKILL of PostgreSQL (and of the machine): never turn these off.
+DURABLE="-c fsync=on -c synchronous_commit=on -c full_page_writes=on"
+weak_settings() {
+  psql_su -tAc "SELECT string_agg(name || '=' || setting, ', ' ORDER BY name) FROM pg_settings
+                WHERE name IN ('fsync', 'synchronous_commit', 'full_page_writes') AND setting <> 'on'"
+}
+
+if running && [ -n "$(weak_settings 2>/dev/null || true)" ]; then
+  log "cluster runs with $(weak_settings) (acknowledged commits could be lost): restarting it with durability on"
+  as_pg "$bin/pg_ctl" -D "$pgdata" -w -t 60 -m fast stop >/dev/null
+fi
 
 if ! running; then
   if [ -f "$pgdata/postmaster.pid" ]; then
@@ -79,13 +104,16 @@ if ! running; then
     sed -i "s/^KW_PG_PORT=.*/KW_PG_PORT=$KW_PG_PORT/" "$envfile"
   fi
   log "starting PostgreSQL on 127.0.0.1:$KW_PG_PORT"
-  as_pg "$bin/pg_ctl" -D "$pgdata" -l "$pgdata/server.log" -w -t 60 start \
-    -o "-c listen_addresses=127.0.0.1 -p $KW_PG_PORT -c unix_socket_directories='$pgdata' -c max_connections=200 -c fsync=off -c synchronous_commit=off" >/dev/null
+  as_pg "$bin/pg_ctl" -D "$pgdata" -l "$pgdata/server.log" -w -t 180 start \
+    -o "-c listen_addresses=127.0.0.1 -p $KW_PG_PORT -c unix_socket_directories='$pgdata' -c max_connections=200 $DURABLE" >/dev/null
 else
   log "PostgreSQL already running on 127.0.0.1:$KW_PG_PORT"
 fi
 
-psql_su() { as_pg psql -X -q -v ON_ERROR_STOP=1 -h "$pgdata" -p "$KW_PG_PORT" -U postgres -d postgres "$@"; }
+# Also in postgresql.auto.conf, so a start by hand (pg_ctl without these flags) keeps them; then check what runs.
+psql_su -c "ALTER SYSTEM SET fsync = on" -c "ALTER SYSTEM SET synchronous_commit = on" -c "ALTER SYSTEM SET full_page_writes = on" >/dev/null
+weak="$(weak_settings)"
+if [ -n "$weak" ]; then log "PostgreSQL still runs with $weak: refusing to continue"; exit 1; fi
 
 psql_su <<SQL
 DO \$\$ BEGIN

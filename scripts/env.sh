@@ -1,9 +1,9 @@
 #!/usr/bin/env bash
 # Sourced by start.sh and test.sh: database URLs and secrets for one database name.
-# Usage: . scripts/env.sh <database-name>
+# Usage: . scripts/env.sh <database-name>   (KW_PG_ENV names another cluster's env file under .data/, as in db.sh)
 kw_root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 set -a
-. "$kw_root/.data/pg.env"
+. "$kw_root/.data/${KW_PG_ENV:-pg.env}"
 set +a
 kw_db="${1:-knotwork}"
 secrets="$kw_root/.data/secrets.env"

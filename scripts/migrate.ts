@@ -1,9 +1,10 @@
 // Runs pending migrations as the schema owner, then (re)grants the app role exactly
-// what it may do: no UPDATE or DELETE on audit rows. Never sync().
+// what it may do: no UPDATE or DELETE on audit rows. Never sync(). Then installs the run queue (pg-boss).
 import { Umzug, SequelizeStorage } from 'umzug'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { createSequelize } from '../server/database/connection'
+import { installQueue } from '../server/lib/work/queue'
 
 const here = path.dirname(fileURLToPath(import.meta.url))
 
@@ -22,13 +23,15 @@ export async function migrate(ownerUrl: string, appRole: string | undefined, log
         GRANT USAGE ON SCHEMA public TO ${appRole};
         GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA public TO ${appRole};
         GRANT USAGE, SELECT ON ALL SEQUENCES IN SCHEMA public TO ${appRole};
-        REVOKE UPDATE, DELETE, TRUNCATE ON audit_events FROM ${appRole};
+        REVOKE UPDATE, DELETE, TRUNCATE ON audit_events, audit_checkpoints FROM ${appRole};
         REVOKE INSERT, UPDATE, DELETE, TRUNCATE ON schema_migrations FROM ${appRole};
       `)
     }
   } finally {
     await sequelize.close()
   }
+  // the run queue (pg-boss's own schema and migrations), after our tables
+  await installQueue(ownerUrl, appRole)
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {

@@ -1,6 +1,8 @@
 #!/usr/bin/env bash
 # npm test: the same set-up as npm start against a throwaway database, then lint,
-# type-check, unit, API and browser tests. Usage: npm test [-- unit|api|browser|static]
+# type-check, unit, two-node, API, browser and reliability tests.
+# Usage: npm test [-- unit|nodes|api|browser|reliability|static]
+# The reliability suite runs its own PostgreSQL cluster and app server (tests/reliability/stack.ts), which it kills.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 only="${1:-all}"
@@ -38,8 +40,15 @@ fi
 if [ "$only" = all ] || [ "$only" = unit ]; then
   echo "[test] unit"; npx vitest run --project unit
 fi
-if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ]; then
+if [ "$only" = all ] || [ "$only" = nodes ] || [ "$only" = api ] || [ "$only" = browser ] || [ "$only" = reliability ]; then
   echo "[test] building"; npx nuxt build > .data/build-test.log 2>&1 || { tail -40 .data/build-test.log; exit 1; }
+fi
+if [ "$only" = all ] || [ "$only" = nodes ]; then
+  # two app nodes of the built server on the test database, started by the test itself; before the server below
+  # starts, so no third node takes the runs the test follows
+  echo "[test] two nodes"; npx vitest run --project nodes
+fi
+if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ]; then
   port="${port_base:-$(( 3100 + ($$ % 400) ))}"
   export KW_BASE_URL="http://127.0.0.1:$port" NUXT_TRUST_PROXY=1
   export NUXT_PUBLIC_BASE_URL="$KW_BASE_URL"
@@ -48,5 +57,9 @@ if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ]; then
   for _ in $(seq 1 60); do curl -sf "$KW_BASE_URL/signin" >/dev/null && break; sleep 0.5; done
   if [ "$only" = all ] || [ "$only" = api ]; then echo "[test] api"; npx vitest run --project api; fi
   if [ "$only" = all ] || [ "$only" = browser ]; then echo "[test] browser"; npx playwright test; fi
+fi
+if [ "$only" = all ] || [ "$only" = reliability ]; then
+  # bounded: a hung step fails instead of holding the run (its cluster and server are stopped by the suite's teardown)
+  echo "[test] reliability"; timeout --kill-after=30 1200 npx vitest run --project reliability
 fi
 echo "[test] all requested suites passed"

@@ -7,13 +7,21 @@
 import { readFileSync, writeFileSync, mkdirSync } from 'node:fs'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
-import { canonicalBytes, contentFromSheets, contentSha256, publicPem, readWorkbookCells, signatureSheetField as field, verifyWorkbookCells } from '../server/lib/signing'
+import { LABEL, SIGNED_FORMAT_V1, storedSignedContent, canonicalBytes, contentFromSheets, contentSha256, publicPem, readWorkbookCells, signatureSheetField as field, verifyWorkbookCells, type SheetCells } from '../server/lib/signing'
 
-/** The files openssl needs: canonical content rebuilt from the visible sheets, the raw signature, the public key. */
+/** The signed content as canonical bytes: rebuilt from the visible sheets (first format) or joined from its stored parts. */
+function signedBytes(sheets: SheetCells): Buffer {
+  if (field(sheets, LABEL.format) === SIGNED_FORMAT_V1) return canonicalBytes(contentFromSheets(sheets))
+  const stored = storedSignedContent(sheets)
+  if (!stored) throw new Error('the Signature sheet holds no readable signed content')
+  return canonicalBytes(stored)
+}
+
+/** The files openssl needs: the canonical signed content, the raw signature, the public key. */
 export async function extractForOpenssl(file: Buffer, x: string) {
   const sheets = await readWorkbookCells(file)
-  const content = contentFromSheets(sheets)
-  return { content: canonicalBytes(content), signature: Buffer.from(field(sheets, 'Signature (base64)') ?? '', 'base64'), pem: publicPem(x), sha256: contentSha256(content) }
+  const content = signedBytes(sheets)
+  return { content, signature: Buffer.from(field(sheets, LABEL.signature) ?? '', 'base64'), pem: publicPem(x), sha256: contentSha256(JSON.parse(content.toString('utf8')) as object) }
 }
 
 async function main() {
@@ -32,6 +40,8 @@ async function main() {
     const c = verdict.content
     console.log(`GENUINE: ${c.table.name}, version ${c.version.number} (${c.organisation.name}), signed off by ${c.approvedBy?.name ?? '?'} at ${c.approvedAt}, file signed ${c.signedAt}`)
     console.log(`key id ${verdict.keyId}${published ? ' (found in the published key set)' : ' (key taken from the file itself: compare this key id with the published one)'}`)
+    const head = verdict.anchor?.statement.head
+    if (verdict.anchor) console.log(head ? `audit trail when the file was made: event #${head.number} (id ${head.eventId}), hash ${head.hash}; check it on the audit trail page` : 'audit trail when the file was made: empty')
   } else if (verdict.kind === 'altered') {
     console.log(`ALTERED: ${verdict.reason}`)
     for (const d of verdict.differences) console.log(`  ${d.cell}: signed ${JSON.stringify(d.expected)}, found ${JSON.stringify(d.found)}`)
@@ -40,7 +50,7 @@ async function main() {
   } else {
     console.log(`NOT SIGNED: ${verdict.reason}`)
   }
-  const kid = field(sheets, 'Key id')
+  const kid = field(sheets, LABEL.keyId)
   const x = kid ? lookup(kid) : null
   if (out && x) {
     mkdirSync(out, { recursive: true })

@@ -4,6 +4,8 @@ export const API_ERROR_CODES = [
   // input
   'invalid-input', // a field or parameter failed validation (data.issues lists every problem)
   'invalid-json', // the body is not JSON
+  'unsupported-media-type', // 415: a JSON route was sent another content type
+  'body-too-large', // 413: the request body passed its route's limit (counted as the bytes arrive)
   'engine-refused', // the engine refused the request (data.engineCode names the engine's reason)
   'import-refused', // an uploaded file was refused (kind, size, structure)
   'import-blocked', // the upload's values have blocking findings (data.findings)
@@ -14,15 +16,19 @@ export const API_ERROR_CODES = [
   'wrong-credentials',
   'wrong-password',
   'read-token-required',
+  'cross-origin', // a change that did not come from one of the app's own pages (Origin / Sec-Fetch-Site)
+  'json-required', // a JSON route was sent a form body (a type a cross-site page can send without asking)
   'role-forbidden',
   'own-work', // maker-checker: nobody signs off their own work
-  'not-found', // missing, or another organisation's (the same answer on purpose)
+  'not-found', // missing, or another organisation's (the same answer on purpose); also an unknown /api/ address
+  'method-not-allowed', // 405: a known /api/ address asked with a method it does not serve
   'link-expired',
   // state
   'draft-conflict', // someone saved the draft after it was read (data.lockVersion is the current one)
   'not-a-draft', // only a working draft changes
   'version-open', // a draft or a version in review already exists
   'fill-missing', // no fill is recorded
+  'fill-stale', // the recorded fill was fitted on other points than the version holds (choose it again)
   'wrong-state', // the version is not in the state the action needs
   'meaning-fixed', // kind, axis and units are fixed once a version left draft
   'name-taken',
@@ -39,7 +45,9 @@ export const API_ERROR_CODES = [
   'service-unreachable',
   'not-configured',
   'mail-failed',
-  'cancelled',
+  'cancelled', // the run was cancelled (by its owner, or its connection closed)
+  'run-unfinished', // the run has no result yet (data.status says where it is)
   'try-later',
+  'service-unavailable', // 503: the database cannot be reached just now (Retry-After); the app recovers by itself
 ] as const
 export type ApiErrorCode = (typeof API_ERROR_CODES)[number]

@@ -8,7 +8,8 @@ import type { ValueUnit } from './tables'
 export const D = Decimal.clone({ precision: TEXT_DIGITS, rounding: Decimal.ROUND_HALF_EVEN })
 export const MAX_SIGNIFICANT_DIGITS = MAX_INPUT_DIGITS
 
-export const UNIT_SCALE: Record<ValueUnit, number> = { 'per-unit': 1, 'percent': 100, 'per-mille': 1000 }
+export const UNIT_SCALE: Record<ValueUnit, number> = { 'per-unit': 1, 'percent': 100, 'per-mille': 1000, 'basis-points': 10000 }
+const SHIFT: Record<number, number> = { 1: 0, 100: 2, 1000: 3, 10000: 4 }
 
 /**
  * Canonical decimal text: plain notation (no exponent), no trailing zeros after the point,
@@ -57,20 +58,20 @@ export function shiftPointLeft(canonical: string, k: number): string {
   return canonicalPlain(`${neg ? '-' : ''}${moved}`)!
 }
 
-export type ParsedNumber = { ok: true; value: string; scale: 1 | 100 | 1000 } | { ok: false; reason: string }
+export type ParsedNumber = { ok: true; value: string; scale: 1 | 100 | 1000 | 10000 } | { ok: false; reason: string }
 
 const PLAIN = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d{1,4})?$/
 const THOUSANDS = /^[+-]?\d{1,3}(,\d{3})+(\.\d*)?$/
 
 /**
  * Reads a number as people type it in a spreadsheet: '1,234.5', '1.2%', '0.8 ‰', '−0.5'.
- * A '%' or '‰' in the cell sets its own scale; otherwise the column's unit applies.
+ * A '%', '‰' or 'bp' in the cell sets its own scale; otherwise the column's unit applies.
  */
 export function parseNumberText(raw: string): ParsedNumber {
   let text = raw.replace(/[\u00a0\u2009\u202f]/g, ' ').trim().replace(/^\u2212/, '-')
   if (!text) return { ok: false, reason: 'is blank' }
-  let scale: 1 | 100 | 1000 = 1
-  if (text.endsWith('%')) { scale = 100; text = text.slice(0, -1).trim() } else if (text.endsWith('\u2030')) { scale = 1000; text = text.slice(0, -1).trim() }
+  let scale: 1 | 100 | 1000 | 10000 = 1
+  if (text.endsWith('%')) { scale = 100; text = text.slice(0, -1).trim() } else if (text.endsWith('\u2030')) { scale = 1000; text = text.slice(0, -1).trim() } else if (/\s?bps?$/i.test(text)) { scale = 10000; text = text.replace(/\s?bps?$/i, '').trim() }
   if (/^[+-]?\d{1,3}( \d{3})+(\.\d*)?$/.test(text)) text = text.replace(/ /g, '')
   if (THOUSANDS.test(text)) text = text.replace(/,/g, '')
   if (!PLAIN.test(text)) {
@@ -91,7 +92,7 @@ export function parseNumberText(raw: string): ParsedNumber {
 /** The stored per-unit value of a parsed cell in a column of the given unit. */
 export function toPerUnit(parsed: { value: string; scale: number }, columnUnit: ValueUnit): string {
   const divisor = parsed.scale !== 1 ? parsed.scale : UNIT_SCALE[columnUnit]
-  return shiftPointLeft(canonicalDecimal(parsed.value), divisor === 1000 ? 3 : divisor === 100 ? 2 : 0)
+  return shiftPointLeft(canonicalDecimal(parsed.value), SHIFT[divisor] ?? 0)
 }
 
 /** A stored per-unit value shown in the table's unit (exact). */

@@ -18,9 +18,36 @@ export const AXIS_LABELS: Record<Axis, string> = { 'age': 'Age', 'policy-year': 
 export const AXIS_UNITS = ['years', 'months'] as const
 export type AxisUnit = (typeof AXIS_UNITS)[number]
 
-export const VALUE_UNITS = ['per-unit', 'percent', 'per-mille'] as const
+export const VALUE_UNITS = ['per-unit', 'percent', 'per-mille', 'basis-points'] as const
 export type ValueUnit = (typeof VALUE_UNITS)[number]
-export const VALUE_UNIT_LABELS: Record<ValueUnit, string> = { 'per-unit': 'per unit', 'percent': '%', 'per-mille': '‰' }
+export const VALUE_UNIT_LABELS: Record<ValueUnit, string> = { 'per-unit': 'per unit', 'percent': '%', 'per-mille': '‰', 'basis-points': 'bp' }
+/** The unit in words, as column headings and axis titles carry it: "q_x (per mille)". */
+export const VALUE_UNIT_WORDS: Record<ValueUnit, string> = { 'per-unit': 'per unit', 'percent': '%', 'per-mille': 'per mille', 'basis-points': 'basis points' }
+/** Basis points are a unit of rates on a curve; every other unit suits every kind. */
+export function unitFitsKind(kind: TableKind, unit: ValueUnit): boolean {
+  return unit !== 'basis-points' || kind === 'spot-rate'
+}
+export const UNIT_KIND_MESSAGE = 'Basis points are for spot-rate curves; choose %, per mille or per unit for this kind of table'
+
+/** What the values of each kind are called in headings (q_x is the trade's own symbol). */
+export const VALUE_NAMES: Record<TableKind, string> = {
+  'mortality': 'q_x',
+  'lapse': 'Lapse rate',
+  'salary': 'Salary scale',
+  'spot-rate': 'Spot rate',
+  'discount-factor': 'Discount factor',
+  'other': 'Value',
+}
+
+/** "Age (years)", "Term (months)", "Policy year". */
+export function axisHeading(axis: Axis, axisUnit: AxisUnit): string {
+  return axis === 'policy-year' ? AXIS_LABELS[axis] : `${AXIS_LABELS[axis]} (${axisUnit})`
+}
+
+/** "q_x (per mille)", "Spot rate (%)", "Salary scale (per unit)". */
+export function valueHeading(kind: TableKind, unit: ValueUnit): string {
+  return `${VALUE_NAMES[kind]} (${VALUE_UNIT_WORDS[unit]})`
+}
 
 export const VERSION_STATUSES = ['draft', 'in-review', 'approved', 'retired'] as const
 export type VersionStatus = (typeof VERSION_STATUSES)[number]

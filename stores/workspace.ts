@@ -11,7 +11,9 @@ export const useWorkspaceStore = defineStore('workspace', () => {
     if (loaded.value && !force) return me.value
     try {
       me.value = await useRequestFetch()<MeDto>('/api/me')
-    } catch {
+    } catch (e) {
+      // the database is out of reach for a moment: show that (503), not the sign-in page
+      if (apiErrorCode(e) === 'service-unavailable') throw createError({ statusCode: 503, statusMessage: apiErrorMessage(e), fatal: true })
       me.value = null
     }
     loaded.value = true

@@ -27,8 +27,8 @@ export async function seedApprovals(db: Sequelize, t: Transaction, people: Seede
       const result = fill({ knots, kind: 'spot-rate', method: 'pchip', options: {}, transform: 'none', extrapolation: 'error', grid })
       const spec = { ...result.spec, bench: { grid, label: 'Monotone cubic (PCHIP)', pointsHash: v.content_hash } }
       await db.query(`UPDATE table_versions SET fill_spec = :spec::jsonb, fill_rationale = :why, fill_diagnostics = :diag::jsonb, fill_money = :money::jsonb,
-          filled_by = :maker, filled_at = :filledAt WHERE id = :id`,
-      { replacements: { id: v.id, spec: JSON.stringify(spec), diag: JSON.stringify(result.diagnostics), money: JSON.stringify(result.money), maker, filledAt: at(50),
+          filled_by = :maker, filled_at = :filledAt, fill_points_hash = :pointsHash, fill_lock_version = lock_version WHERE id = :id`,
+      { replacements: { id: v.id, pointsHash: v.content_hash, spec: JSON.stringify(spec), diag: JSON.stringify(result.diagnostics), money: JSON.stringify(result.money), maker, filledAt: at(50),
         why: 'Monotone cubic keeps the curve between the quoted tenors without overshoot; forwards stay positive (invented demo data).' }, transaction: t })
       for (let i = 0; i < result.points.length; i += 1000) {
         const slice = result.points.slice(i, i + 1000)

@@ -263,6 +263,15 @@ function floatDoubt(lnPErrors: number, dt: number, F: number): number {
   return 2 * (lnPErrors / dt + 3 * u * Math.abs(F)) + FLOAT_TINY
 }
 
+/** How the fill goes on outside the given points, in words (the rule's id kept where a reader may look it up). */
+const EXTRAPOLATION_WORDS: Partial<Record<string, string>> = {
+  flat: 'the end value held flat',
+  linear: 'the end piece extended as a straight line',
+  gompertz: "closed at old ages by a Gompertz law fitted to the oldest given ages (rule 'gompertz')",
+  kannisto: "closed at old ages by a Kannisto law fitted to the oldest given ages (rule 'kannisto')",
+  method: "carried on by the method's own formula (rule 'method')",
+}
+
 function extrapolationNotes(core: CoreFill): string[] {
   const lo = core.pp.breaks[0]!
   const hi = core.pp.breaks[core.pp.breaks.length - 1]!
@@ -273,5 +282,6 @@ function extrapolationNotes(core: CoreFill): string[] {
     else if (x.gt(hi)) above += 1
   }
   if (below + above === 0) return []
-  return [`${below + above} point(s) lie outside the knots [${lo.toString()}, ${hi.toString()}] (${below} below, ${above} above) and were extrapolated by rule '${core.spec.extrapolation}'.`]
+  const rule = EXTRAPOLATION_WORDS[core.spec.extrapolation] ?? `extended by rule '${core.spec.extrapolation}'`
+  return [`${below + above} point(s) lie outside the given points, ${lo.toString()} to ${hi.toString()} (${below} below, ${above} above); there the fill is ${rule}.`]
 }

@@ -14,6 +14,4 @@ export { TRANSFORM_LISTING, type TransformListing } from './transform-listing'
 export { ENGINE_VERSION } from './version'
 export { DEFAULT_PRECISION, MIN_PRECISION, MAX_PRECISION, GUARD_DIGITS } from './precision'
 export type * from './types'
-
-/** Caution to show beside every result (OWNER_RULES: safety). */
-export const REVIEW_CAUTION = 'Filled values are a calculation aid. Before use in reserves or prices, they need review by a qualified actuary under the applicable actuarial standards and local regulation.'
+export { REVIEW_CAUTION } from './types'

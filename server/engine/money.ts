@@ -2,15 +2,19 @@ import { intensityOf, rateInDomain, rateOfIntensityExact } from './compounding'
 import { roundTo, type Dec } from './decimal'
 import { evaluateValues, type CoreFill } from './pipeline'
 import type { MoneyFigure, MoneyImpact } from './types'
+import { lapseSummary, salarySummary } from './summaries'
 
 const RADIX = 100000
 
-/** How much the fill moves the money (docs/domain.md#checks): life expectancy and annuities for q_x, PVs and durations for curves. */
+/** How much the fill moves the money (docs/domain.md#checks): life expectancy and annuities for q_x, PVs and durations for curves;
+ * for lapse and salary tables a money-free summary (policies in force, salary growth). */
 export function computeMoney(core: CoreFill): MoneyImpact {
   const kind = core.spec.kind
   if (kind === 'mortality') return mortalityMoney(core)
   if (kind === 'spot-rate' || kind === 'discount-factor') return curveMoney(core)
-  return { basis: 'none', available: false, reason: `No money view for kind '${kind}'.`, figures: [] }
+  if (kind === 'lapse') return lapseSummary(core)
+  if (kind === 'salary') return salarySummary(core)
+  return { basis: 'none', available: false, reason: 'A table of kind "other" has no summary: its values carry no fixed meaning.', figures: [] }
 }
 
 function unavailable(basis: MoneyImpact['basis'], reason: string): MoneyImpact {

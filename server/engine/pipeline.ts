@@ -90,7 +90,7 @@ export function fitRequest(request: FillRequest, points?: ResolvedPoints | null)
     // ln P(0) = 0 by definition (P(0) = 1): anchor the curve there so short terms are interpolated, not extrapolated.
     x = [new D(0), ...x]
     y.unshift(new D(0))
-    notes.push(`${def.scale === 'log-discount' ? def.id : 'log-discount'}: the point t = 0, ln P(0) = 0 (P(0) = 1 by definition), was added to the knots.`)
+    notes.push(`On the log discount factor scale${def.scale === 'log-discount' ? ` (where ${def.id} works)` : ''}, the point t = 0 with ln P(0) = 0 (P(0) = 1 by definition) was added to the given points.`)
   }
   const resolved = def.calibrate ? def.calibrate(x, y, options, D) : options
   const pp = def.fit(x, y, resolved, D)

@@ -25,14 +25,19 @@ export function chainHash(prevHash: string | null, content: AuditContent): strin
 
 export interface ChainRow extends AuditContent { id: string; prevHash: string | null; hash: string }
 
+/** The fields of a row the hash covers, and nothing else (a row may carry more, such as its number). */
+export function hashedContent(row: AuditContent): AuditContent {
+  const { orgId, actorId, actorEmail, action, objectType, objectId, outcome, requestId, ip, detail, at } = row
+  return { orgId, actorId, actorEmail, action, objectType, objectId, outcome, requestId, ip, detail, at }
+}
+
 /** Walks one chain in order; returns the id of the first event whose link is broken, or null. */
 export function firstBrokenLink(rows: ChainRow[]): { id: string; reason: string } | null {
   let prev: string | null = null
   for (const row of rows) {
     if (row.prevHash !== prev) return { id: row.id, reason: 'its link to the previous event does not match' }
-    const { id: _id, prevHash: _p, hash, ...content } = row
-    if (chainHash(prev, content) !== hash) return { id: row.id, reason: 'its content does not match its hash' }
-    prev = hash
+    if (chainHash(prev, hashedContent(row)) !== row.hash) return { id: row.id, reason: 'its content does not match its hash' }
+    prev = row.hash
   }
   return null
 }

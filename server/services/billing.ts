@@ -1,5 +1,5 @@
 import type { H3Event } from 'h3'
-import type { BillingDto, BillingInvoiceDto, BillingStatusDto } from '#shared/types/api'
+import type { BillingDto, BillingInvoiceDto, BillingStatusDto, SeatsPreviewDto } from '#shared/types/api'
 import { BillingAccount, BillingInvoice, type Organisation } from '../database/models'
 import { PLAN, TRIAL_DAYS, planPriceId } from './billing-plan'
 import { syncBillingAccount } from './billing-sync'
@@ -41,20 +41,56 @@ export async function provisionBilling(event: H3Event, org: Organisation): Promi
   }
 }
 
-/** Changes the subscription quantity; the proration is invoiced at once. Refuses fewer seats than are in use. */
-export async function changeSeats(event: H3Event, org: Organisation, seats: number, requestKey: string): Promise<void> {
+async function seatsAccount(event: H3Event, org: Organisation, seats: number): Promise<BillingAccount> {
   const account = await provisionBilling(event, org)
   const usage = await seatUsage(org.id, account.seats)
   if (seats < usage.used) {
     throw apiError(409, 'seats-in-use', `${usage.used} seats are in use (${usage.members} members, ${usage.pending} open invitations). Remove people or cancel invitations before going below that.`)
   }
+  return account
+}
+
+/** A preview priced at most this long ago may be confirmed as it is; an older one is priced again. */
+const PREVIEW_VALID_S = 3600
+
+/** What changing the seats will charge now, from the payment service's own preview of the proration invoice. */
+export async function previewSeats(event: H3Event, org: Organisation, seats: number): Promise<SeatsPreviewDto> {
+  const account = await seatsAccount(event, org, seats)
+  const stripe = useStripe()
+  try {
+    const sub = await stripe.subscriptions.retrieve(account.stripeSubscriptionId!)
+    const item = sub.items.data[0]!
+    const prorationDate = Math.floor(Date.now() / 1000)
+    const invoice = await stripe.invoices.createPreview({
+      customer: sub.customer as string, subscription: sub.id,
+      subscription_details: { items: [{ id: item.id, quantity: seats }], proration_behavior: 'always_invoice', proration_date: prorationDate },
+    })
+    return {
+      from: item.quantity ?? account.seats, to: seats, amountDue: invoice.amount_due, prorated: invoice.total, currency: invoice.currency, prorationDate,
+      periodEnd: item.current_period_end ? new Date(item.current_period_end * 1000).toISOString() : null, monthlyAfter: PLAN.unitAmount * seats,
+      card: account.cardBrand && account.cardLast4 ? { brand: account.cardBrand, last4: account.cardLast4 } : null, trial: sub.status === 'trialing',
+    }
+  } catch (error) {
+    stripeFailure(error)
+  }
+}
+
+/**
+ * Changes the subscription quantity; the proration is invoiced at once. Refuses fewer seats than are in use. With the
+ * preview's prorationDate (at most an hour old), the charge is exactly the amount the person confirmed.
+ */
+export async function changeSeats(event: H3Event, org: Organisation, seats: number, requestKey: string, prorationDate?: number): Promise<void> {
+  const account = await seatsAccount(event, org, seats)
   if (seats === account.seats) return
+  if (prorationDate !== undefined && (prorationDate < Date.now() / 1000 - PREVIEW_VALID_S || prorationDate > Date.now() / 1000 + 60)) {
+    throw apiError(409, 'reload-needed', 'The amount you confirmed was worked out more than an hour ago. Ask for the price again before changing the seats.')
+  }
   const stripe = useStripe()
   try {
     const sub = await stripe.subscriptions.retrieve(account.stripeSubscriptionId!)
     const item = sub.items.data[0]!
     if (item.quantity !== seats) {
-      await stripe.subscriptions.update(sub.id, { items: [{ id: item.id, quantity: seats }], proration_behavior: 'always_invoice' },
+      await stripe.subscriptions.update(sub.id, { items: [{ id: item.id, quantity: seats }], proration_behavior: 'always_invoice', ...(prorationDate ? { proration_date: prorationDate } : {}) },
         { idempotencyKey: `kw-seats-${org.id}-${requestKey}` })
     }
     await inTransaction(async (t) => {

@@ -4,15 +4,16 @@ import type { H3Event } from 'h3'
 import type { OrgAccess } from '../utils/auth'
 import type { ImportMapping } from '#shared/schemas/imports'
 import type { ColumnSuggestion, ImportCommitDto, ImportDto, ImportFinding, ImportPreviewDto, ImportSheetDto } from '#shared/types/tables'
-import { IMPORT_LIMITS, ImportRefused } from '../lib/import/limits'
-import { readWorkbook, type StoredSheet } from '../lib/import/read-workbook'
-import { guessAxis, proposeHeaderRow, suggestColumns } from '../lib/import/analyse'
-import { validateMapping, type Validation } from '../lib/import/validate'
-import { pointsContentHash } from '../lib/points-hash'
-import { insertPoints } from './points-store'
+import { ImportRefused } from '../lib/import/limits'
+import type { guessAxis } from '../lib/import/analyse'
+import { runTask } from '../lib/work/pool'
+import { insertPointChunks } from './points-store'
+import { HEAVY_UPLOAD_BYTES, newRunKey, startRun } from './work/start'
+import { importDto, type ImportReadInput, type ImportRow } from './work/kinds/import-read'
+import { loadMappedSheet } from './import-cells'
 
-type Row = Record<string, unknown>
-interface ImportRow { id: string; file_name: string; file_kind: 'xlsx' | 'csv'; size_bytes: number; sheets: StoredSheet[]; created_at: string; expires_at: string }
+// The import wizard's server side. Parsing an upload is a run (server/services/work/kinds/import-read.ts); describing,
+// previewing and validating the stored cells run in the worker pool, so no step walks a large sheet on the request loop.
 
 /** A 4xx the route can send: the refusal's own status and words. */
 export function refusal(e: unknown): never {
@@ -20,50 +21,26 @@ export function refusal(e: unknown): never {
   throw e
 }
 
-const toDto = (r: ImportRow): ImportDto => ({
-  id: r.id, fileName: r.file_name, fileKind: r.file_kind, sizeBytes: r.size_bytes,
-  sheets: r.sheets.map(s => ({ name: s.name, rowCount: s.rows.length, colCount: s.colCount, headerGuess: proposeHeaderRow(s.rows) })),
-  createdAt: new Date(r.created_at).toISOString(), expiresAt: new Date(r.expires_at).toISOString(),
-})
-
-/** Parses and checks the upload; only a file that passed every guard gets an imports row. */
-export async function createImport(event: H3Event, access: OrgAccess, fileName: string, data: Buffer): Promise<ImportDto> {
-  const { kind, sheets } = await readWorkbook(fileName, data).catch(refusal)
-  return inTransaction(async (t) => {
-    await useDb().query('DELETE FROM imports WHERE expires_at < now()', { transaction: t })
-    const [row] = await useDb().query<ImportRow>(
-      `INSERT INTO imports (org_id, owner_id, file_name, file_kind, size_bytes, sheets, expires_at)
-       VALUES (:orgId, :ownerId, :fileName, :kind, :size, :sheets::jsonb, now() + make_interval(hours => :hours))
-       RETURNING id, file_name, file_kind, size_bytes, sheets, created_at, expires_at`,
-      { replacements: { orgId: access.org.id, ownerId: access.user.id, fileName, kind, size: data.length, sheets: JSON.stringify(sheets), hours: IMPORT_LIMITS.keepHours }, type: QueryTypes.SELECT, transaction: t })
-    await audit(event, { orgId: access.org.id, action: 'import.upload', objectType: 'import', objectId: row!.id, detail: { fileName, kind, sizeBytes: data.length, sheets: sheets.map(s => ({ name: s.name, rows: s.rows.length })) } }, t)
-    return toDto(row!)
-  })
+/** Starts reading an upload (sniff, guards, parse) as a run; large files go through the queue. */
+export function startImportRead(event: H3Event, access: OrgAccess, fileName: string, data: Buffer, runKey: string = newRunKey()): Promise<{ id: string, runKey: string }> {
+  const input: ImportReadInput = { fileName, origin: { requestId: event.context.requestId ?? null, ip: clientAddress(event) } }
+  return startRun(access, { kind: 'import-read', runKey, heavy: data.length > HEAVY_UPLOAD_BYTES, input: input as never, bytes: data, total: 1 })
 }
 
-/** The caller's own, unexpired import in this organisation; 404 for anyone else's. */
-async function loadImport(access: OrgAccess, id: string, t?: Transaction, lock = false): Promise<ImportRow> {
+/** The caller's own, unexpired import in this organisation (with its cells as JSON text when asked); 404 for anyone else's. */
+async function loadImport(access: OrgAccess, id: string, options: { cells?: boolean, t?: Transaction, lock?: boolean } = {}): Promise<ImportRow & { sheets_json?: string }> {
   if (!isUuid(id)) notFound('upload')
-  const [row] = await useDb().query<ImportRow>(
-    `SELECT id, file_name, file_kind, size_bytes, sheets, created_at, expires_at FROM imports
-     WHERE id = :id AND org_id = :orgId AND owner_id = :ownerId AND expires_at > now()${lock ? ' FOR UPDATE' : ''}`,
-    { replacements: { id, orgId: access.org.id, ownerId: access.user.id }, type: QueryTypes.SELECT, transaction: t })
+  const [row] = await useDb().query<ImportRow & { sheets_json?: string }>(
+    `SELECT id, file_name, file_kind, size_bytes, sheet_summary, created_at, expires_at${options.cells ? ', sheets::text AS sheets_json' : ''} FROM imports
+     WHERE id = :id AND org_id = :orgId AND owner_id = :ownerId AND expires_at > now()${options.lock ? ' FOR UPDATE' : ''}`,
+    { replacements: { id, orgId: access.org.id, ownerId: access.user.id }, type: QueryTypes.SELECT, transaction: options.t })
   return row ?? notFound('upload (it may have expired; upload the file again)')
 }
 
-export async function describeImport(access: OrgAccess, id: string, sheetName?: string, headerRow?: number): Promise<ImportDto & { sheet: ImportSheetDto; columns: ColumnSuggestion[]; axis: ReturnType<typeof guessAxis> }> {
-  const row = await loadImport(access, id)
-  const sheet = row.sheets.find(s => s.name === sheetName) ?? row.sheets[0]!
-  const guess = proposeHeaderRow(sheet.rows)
-  const header = headerRow !== undefined && headerRow < sheet.rows.length ? headerRow : guess
-  const columns = suggestColumns(sheet, header)
-  const axisCol = columns.find(c => c.role === 'axis')
-  return {
-    ...toDto(row),
-    sheet: { name: sheet.name, head: sheet.rows.slice(0, 40).map(r => r.slice(0, sheet.colCount)), rowCount: sheet.rows.length, colCount: sheet.colCount, headerGuess: guess },
-    columns,
-    axis: guessAxis(axisCol?.header ?? ''),
-  }
+export async function describeImport(access: OrgAccess, id: string, sheetName?: string, headerRow?: number, signal?: AbortSignal): Promise<ImportDto & { sheet: ImportSheetDto; columns: ColumnSuggestion[]; axis: ReturnType<typeof guessAxis> }> {
+  const row = await loadImport(access, id, { cells: true })
+  const described = await runTask('describeImport', { sheetsJson: row.sheets_json!, sheetName, headerRow }, { signal })
+  return { ...importDto(row), ...described }
 }
 
 async function nameClashes(orgId: string, m: ImportMapping, t?: Transaction): Promise<ImportFinding[]> {
@@ -72,59 +49,56 @@ async function nameClashes(orgId: string, m: ImportMapping, t?: Transaction): Pr
   return rows.map(r => ({ severity: 'error' as const, code: 'name-taken', sheet: m.sheet, cell: null, row: null, col: m.columns.find(c => c.name.toLowerCase() === r.name.toLowerCase())!.index, message: `A table called "${r.name}" already exists; choose another name.` }))
 }
 
-async function check(access: OrgAccess, row: ImportRow, m: ImportMapping, t?: Transaction): Promise<Validation> {
-  const sheet = row.sheets.find(s => s.name === m.sheet)
+/** The mapping fits the sheet (checked on the stored summary, before any cell is read). */
+function checkShape(row: ImportRow, m: ImportMapping): void {
+  const sheet = row.sheet_summary.find(s => s.name === m.sheet)
   if (!sheet) throw apiError(400, 'invalid-input', `The upload has no sheet '${m.sheet}'.`)
-  const width = sheet.colCount
-  if (m.headerRow >= sheet.rows.length || m.axisColumn >= width || m.columns.some(c => c.index >= width)) {
+  if (m.headerRow >= sheet.rowCount || m.axisColumn >= sheet.colCount || m.columns.some(c => c.index >= sheet.colCount)) {
     throw apiError(400, 'invalid-input', 'The header row or a column is outside the sheet.')
   }
-  const v = validateMapping(sheet, m)
-  v.findings.unshift(...await nameClashes(access.org.id, m, t))
-  return v
 }
 
-export async function previewImport(access: OrgAccess, id: string, m: ImportMapping): Promise<ImportPreviewDto> {
-  const row = await loadImport(access, id)
-  const v = await check(access, row, m)
-  const sheet = row.sheets.find(s => s.name === m.sheet)!
-  const shown = new Set<number>(v.flaggedRows.slice(0, 500))
-  for (let r = m.headerRow + 1; r < sheet.rows.length && r <= m.headerRow + 30; r++) shown.add(r)
-  const columns = [m.axisColumn, ...m.columns.map(c => c.index)]
-  return {
-    findings: v.findings,
-    errors: v.findings.filter(f => f.severity === 'error').length,
-    warnings: v.findings.filter(f => f.severity === 'warning').length,
-    tables: v.tables.map(t => ({ name: t.name, kind: t.kind, valueUnit: t.valueUnit, pointCount: t.points.length, sample: t.points.slice(0, 5) })),
-    rows: [...shown].sort((a, b) => a - b).map(r => ({ row: r, cells: columns.map(c => sheet.rows[r]?.[c] ?? null) })),
-    columns,
-  }
+/** Only the mapped columns of the chosen sheet, picked out by PostgreSQL (the worker then never parses the whole workbook). */
+async function mappedCellsJson(id: string, m: ImportMapping, t?: Transaction): Promise<string> {
+  const sheet = await loadMappedSheet(id, m, t)
+  if (!sheet) throw apiError(400, 'invalid-input', `The upload has no sheet '${m.sheet}'.`)
+  return JSON.stringify([sheet])
 }
 
-/** Re-validates, then creates one table with a working draft per value column, all in one transaction. */
-export async function commitImport(event: H3Event, access: OrgAccess, id: string, m: ImportMapping, acceptWarnings: boolean): Promise<ImportCommitDto> {
+const severityCount = (findings: ImportFinding[], severity: ImportFinding['severity']) => findings.filter(f => f.severity === severity).length
+
+export async function previewImport(access: OrgAccess, id: string, m: ImportMapping, signal?: AbortSignal): Promise<ImportPreviewDto> {
+  checkShape(await loadImport(access, id), m)
+  const preview = await runTask('previewImport', { sheetsJson: await mappedCellsJson(id, m), mapping: m }, { signal })
+  const findings = [...await nameClashes(access.org.id, m), ...preview.findings]
+  return { ...preview, findings, errors: severityCount(findings, 'error'), warnings: severityCount(findings, 'warning') }
+}
+
+/** Re-validates (in the pool), then creates one table with a working draft per value column, all in one transaction. */
+export async function commitImport(event: H3Event, access: OrgAccess, id: string, m: ImportMapping, acceptWarnings: boolean, signal?: AbortSignal): Promise<ImportCommitDto> {
   return inTransaction(async (t) => {
-    const row = await loadImport(access, id, t, true)
-    const v = await check(access, row, m, t)
-    const errors = v.findings.filter(f => f.severity === 'error')
-    const warnings = v.findings.filter(f => f.severity === 'warning')
-    if (errors.length) throw apiError(422, 'import-blocked', `${errors.length} problem(s) block the import: ${errors[0]!.message}`, { findings: v.findings })
-    if (warnings.length && !acceptWarnings) throw apiError(409, 'import-warnings', `Accept the ${warnings.length} warning(s) first, or fix them.`, { findings: v.findings })
+    const row = await loadImport(access, id, { t, lock: true })
+    checkShape(row, m)
+    const v = await runTask('validateImport', { sheetsJson: await mappedCellsJson(id, m, t), mapping: m }, { signal })
+    const findings = [...await nameClashes(access.org.id, m, t), ...v.findings]
+    const errors = findings.filter(f => f.severity === 'error')
+    const warnings = findings.filter(f => f.severity === 'warning')
+    if (errors.length) throw apiError(422, 'import-blocked', `${errors.length} problem(s) block the import: ${errors[0]!.message}`, { findings })
+    if (warnings.length && !acceptWarnings) throw apiError(409, 'import-warnings', `Accept the ${warnings.length} warning(s) first, or fix them.`, { findings })
     const created: ImportCommitDto['tables'] = []
     for (const table of v.tables) {
-      const [tr] = await useDb().query<Row>(
+      const [tr] = await useDb().query<{ id: string }>(
         `INSERT INTO rate_tables (org_id, name, kind, axis, axis_unit, value_unit, description, tags, created_by)
          VALUES (:orgId, :name, :kind, :axis, :axisUnit, :valueUnit, :description, ARRAY['imported']::text[], :userId) RETURNING id`,
         { replacements: { orgId: access.org.id, name: table.name, kind: table.kind, axis: m.axis, axisUnit: m.axisUnit, valueUnit: table.valueUnit, description: m.description, userId: access.user.id }, type: QueryTypes.SELECT, transaction: t })
-      const hash = pointsContentHash(table.points)
-      const [vr] = await useDb().query<Row>(
+      const [vr] = await useDb().query<{ id: string }>(
         `INSERT INTO table_versions (org_id, table_id, number, status, author_id, notes, content_hash)
          VALUES (:orgId, :tableId, 1, 'draft', :userId, :notes, :hash) RETURNING id`,
-        { replacements: { orgId: access.org.id, tableId: tr!.id, userId: access.user.id, notes: `Imported from ${row.file_name}, sheet '${m.sheet}'.`, hash }, type: QueryTypes.SELECT, transaction: t })
-      await insertPoints(vr!.id as string, table.points, t)
-      await audit(event, { orgId: access.org.id, action: 'table.create', objectType: 'rate_table', objectId: tr!.id as string, detail: { name: table.name, kind: table.kind, valueUnit: table.valueUnit, importId: id } }, t)
-      await audit(event, { orgId: access.org.id, action: 'version.create', objectType: 'table_version', objectId: vr!.id as string, detail: { tableId: tr!.id, number: 1, points: table.points.length, contentHash: hash, acceptedWarnings: warnings.length } }, t)
-      created.push({ id: tr!.id as string, name: table.name, versionId: vr!.id as string, number: 1 })
+        { replacements: { orgId: access.org.id, tableId: tr!.id, userId: access.user.id, notes: `Imported from ${row.file_name}, sheet '${m.sheet}'.`, hash: table.contentHash }, type: QueryTypes.SELECT, transaction: t })
+      await insertPointChunks(vr!.id, table.chunks, t)
+      await audit(event, { orgId: access.org.id, action: 'table.create', objectType: 'rate_table', objectId: tr!.id, detail: { name: table.name, kind: table.kind, valueUnit: table.valueUnit, importId: id } }, t)
+      await audit(event, { orgId: access.org.id, action: 'version.create', objectType: 'table_version', objectId: vr!.id, detail: { tableId: tr!.id, number: 1, points: table.pointCount, contentHash: table.contentHash, acceptedWarnings: warnings.length } }, t)
+      created.push({ id: tr!.id, name: table.name, versionId: vr!.id, number: 1 })
     }
     await useDb().query('DELETE FROM imports WHERE id = :id', { replacements: { id }, transaction: t })
     await audit(event, { orgId: access.org.id, action: 'import.commit', objectType: 'import', objectId: id, detail: { fileName: row.file_name, sheet: m.sheet, tables: created.map(c => c.id), acceptedWarnings: warnings.map(w => w.message).slice(0, 50) } }, t)
@@ -134,7 +108,7 @@ export async function commitImport(event: H3Event, access: OrgAccess, id: string
 
 export async function deleteImport(event: H3Event, access: OrgAccess, id: string): Promise<void> {
   await inTransaction(async (t) => {
-    const row = await loadImport(access, id, t, true)
+    const row = await loadImport(access, id, { t, lock: true })
     await useDb().query('DELETE FROM imports WHERE id = :id', { replacements: { id }, transaction: t })
     await audit(event, { orgId: access.org.id, action: 'import.discard', objectType: 'import', objectId: id, detail: { fileName: row.file_name } }, t)
   })

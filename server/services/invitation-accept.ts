@@ -1,7 +1,8 @@
 import type { H3Event } from 'h3'
 import { acceptExistingAccountSchema, acceptNewAccountSchema } from '#shared/schemas/members'
 import { Invitation, Membership, Organisation, User } from '../database/models'
-import { hashPassword, verifyPassword } from '../lib/password'
+import { hashPassword } from '../lib/password'
+import { checkPassword } from './auth'
 import { invitationByToken } from './invitations'
 
 /**
@@ -11,19 +12,16 @@ import { invitationByToken } from './invitations'
  */
 export async function acceptInvitation(event: H3Event, token: string, body: unknown): Promise<{ user: User; orgSlug: string }> {
   const preview = await invitationByToken(token)
-  const session = await getUserSession(event)
+  const session = await readSession(event)
   const existing = await User.findOne({ where: { email: preview.email } })
   let verified = false
-  if (existing && session.user?.id === existing.id) {
+  if (existing && session?.user?.id === existing.id) {
     verified = (await requireUser(event).then(() => true, () => false))
   }
   let newAccount: { name: string; passwordHash: string } | null = null
   if (existing && !verified) {
     const { password } = parseOr400(acceptExistingAccountSchema, body)
-    const ip = clientAddress(event)
-    if (await loginRetryAfter(existing.email, ip) > 0) throw apiError(429, 'rate-limited', 'Too many failed sign-ins. Try again later.')
-    if (!(await verifyPassword(existing.passwordHash, password))) {
-      await recordLoginFailure(existing.email, ip)
+    if (!(await checkPassword(event, existing.email, existing.passwordHash, password, 'Too many failed sign-ins'))) {
       throw apiError(401, 'wrong-credentials', `That is not the password of ${existing.email}. Try again, or use "Forgot password" on the sign-in page.`)
     }
   } else if (!existing) {

@@ -26,6 +26,14 @@ export function passwordResetMail(to: string, link: string): OutgoingMail {
   return { to, subject: 'Set a new Knotwork password', text: `${lines.join('\n\n')}\n\nSet a new password: ${link}\n`, html: html(lines, { href: link, label: 'Set a new password' }) }
 }
 
+export function signupLinkMail(to: string, link: string, hours: number): OutgoingMail {
+  const lines = [
+    'Someone (we hope you) asked to open a Knotwork account with this e-mail address.',
+    `To finish, open the link, name your organisation and choose a password. The link works once, for ${hours} hours. If you did not ask, ignore this message: no account is made.`,
+  ]
+  return { to, subject: 'Finish creating your Knotwork account', text: `${lines.join('\n\n')}\n\nFinish creating your account: ${link}\n`, html: html(lines, { href: link, label: 'Finish creating your account' }) }
+}
+
 export function signupAttemptMail(to: string, signInLink: string, resetLink: string): OutgoingMail {
   const lines = [
     'Someone tried to open a new Knotwork account with this e-mail address. It already belongs to your account, so no new account was made.',

@@ -30,16 +30,17 @@ export async function changeRole(event: H3Event, access: OrgAccess, userId: stri
   })
 }
 
-/** Removes a member; their access ends with the commit (roles are read per request) and their sessions end at once. */
+/**
+ * Removes a member. Their access to this organisation ends with the commit, because every request reads the membership
+ * (requireMember); their sessions stay, so their work in other organisations goes on undisturbed.
+ */
 export async function removeMember(event: H3Event, access: OrgAccess, userId: string): Promise<void> {
-  const removed = await inTransaction(async (t) => {
+  await inTransaction(async (t) => {
     const { target, admins } = await lockedMembership(access.org.id, userId, t)
     keepOneAdmin(target, admins, 'This person cannot be removed')
     await target.destroy({ transaction: t })
     await audit(event, { orgId: access.org.id, action: 'member.remove', objectType: 'user', objectId: userId, detail: { role: target.role } }, t)
-    return target
   })
-  await revokeSessions(removed.userId, `removed from ${access.org.slug}`)
 }
 
 /** The organisation's members, by name. */

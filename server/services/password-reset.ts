@@ -1,5 +1,5 @@
 import type { H3Event } from 'h3'
-import { Op } from 'sequelize'
+import { Op, type Transaction } from 'sequelize'
 import { PasswordReset, User } from '../database/models'
 import { hashPassword } from '../lib/password'
 import { hashToken, newToken } from '../lib/tokens'
@@ -9,10 +9,16 @@ const RESET_MINUTES = 60
 const MAX_OPEN_RESETS = 5
 
 /**
- * Starts a reset for a registered address; does nothing visible for any other. The e-mail goes out after the
- * answer, so both cases answer alike and in about the same time.
+ * Asks for a reset link. Before answering, every request does the same work whatever the address (the throttles, per
+ * client address and per address asked about); the lookup, the new link and the mail come after the answer
+ * (afterAnswer), so neither the answer nor its timing says whether the address is registered.
  */
 export async function requestPasswordReset(event: H3Event, email: string): Promise<void> {
+  await holdAttempt(event, resetRules(clientAddress(event), email), 'Too many password-reset requests')
+  afterAnswer(event, 'password-reset', () => startReset(event, email))
+}
+
+async function startReset(event: H3Event, email: string): Promise<void> {
   const user = await User.findOne({ where: { email } })
   if (!user) return
   const recent = await PasswordReset.count({ where: { userId: user.id, usedAt: null, expiresAt: { [Op.gt]: new Date() } } })
@@ -22,23 +28,31 @@ export async function requestPasswordReset(event: H3Event, email: string): Promi
     await PasswordReset.create({ userId: user.id, tokenHash: hash, expiresAt: new Date(Date.now() + RESET_MINUTES * 60_000) }, { transaction: t })
     await audit(event, { action: 'auth.password-reset-request', objectType: 'user', objectId: user.id, actor: null, detail: { email } }, t)
   })
-  const mail = passwordResetMail(user.email, appLink(`/reset-password/${token}`))
-  sendMail(mail).catch(error => console.error(`[mail] password reset for ${user.id} not sent: ${(error as Error).message}`))
+  await sendMail(passwordResetMail(user.email, appLink(`/reset-password/${token}`)))
 }
 
-/** Sets the new password once per token; every open reset of the person is spent and all sessions end. */
+/** Sets the new password once per token; every open reset of the person is spent, all sessions end, and the account's
+ * failed sign-ins are forgotten. */
 export async function confirmPasswordReset(event: H3Event, token: string, password: string): Promise<void> {
+  await openReset(token) // a link that does not work costs no hash
   const passwordHash = await hashPassword(password)
-  const userId = await inTransaction(async (t) => {
-    const reset = await PasswordReset.findOne({ where: { tokenHash: hashToken(token) }, transaction: t, lock: t.LOCK.UPDATE })
-    if (!reset || reset.usedAt || reset.expiresAt.getTime() <= Date.now()) {
-      throw apiError(400, 'link-expired', 'This reset link is not valid any more: it was used or it expired. Ask for a new one.')
-    }
+  const user = await inTransaction(async (t) => {
+    const reset = await openReset(token, t)
     const user = (await User.findByPk(reset.userId, { transaction: t }))!
     await user.update({ passwordHash, passwordChangedAt: new Date() }, { transaction: t })
     await PasswordReset.update({ usedAt: new Date() }, { where: { userId: user.id, usedAt: null }, transaction: t })
     await audit(event, { action: 'auth.password-reset', objectType: 'user', objectId: user.id, actor: { id: user.id, email: user.email } }, t)
-    return user.id
+    return user
   })
-  await revokeSessions(userId, 'password reset')
+  await revokeSessions(user.id, 'password reset')
+  // the owner proved the mailbox: failed guesses by someone else no longer keep them out (a malicious lockout ends here)
+  await clearThrottle(accountRule(user.email))
+}
+
+async function openReset(token: string, t?: Transaction): Promise<PasswordReset> {
+  const reset = await PasswordReset.findOne({ where: { tokenHash: hashToken(token) }, transaction: t, ...(t ? { lock: t.LOCK.UPDATE } : {}) })
+  if (!reset || reset.usedAt || reset.expiresAt.getTime() <= Date.now()) {
+    throw apiError(400, 'link-expired', 'This reset link is not valid any more: it was used or it expired. Ask for a new one.')
+  }
+  return reset
 }

@@ -72,23 +72,26 @@ export interface ReadAccess {
 export const READ_REQUESTS_PER_MINUTE = 300
 
 /**
- * The organisation a bearer token reads, or 401 (missing, unknown and revoked tokens answer alike). Each request is
- * counted against the token's minute in the same UPDATE; beyond READ_REQUESTS_PER_MINUTE it answers 429 with
- * Retry-After.
+ * Checks a token and counts this request in its clock minute, in one UPDATE (`hash`: the placeholder of the token's
+ * SHA-256). A statement of its own for the list route; the first step of the table route's one statement (signed-bodies.ts).
  */
-export async function requireReadToken(event: H3Event): Promise<ReadAccess> {
-  const header = getRequestHeader(event, 'authorization') ?? ''
-  const token = /^Bearer\s+(\S+)$/i.exec(header)?.[1] ?? ''
-  const [row] = token.startsWith(PREFIX)
-    ? await useDb().query<Row>(`UPDATE read_tokens r SET last_used_at = now(),
-          window_count = CASE WHEN r.window_start = date_trunc('minute', now()) THEN r.window_count + 1 ELSE 1 END,
-          window_start = date_trunc('minute', now())
-        FROM organisations o
-        WHERE r.token_hash = :hash AND r.revoked_at IS NULL AND o.id = r.org_id
-        RETURNING r.id, r.name, r.table_ids::text[] AS table_ids, r.window_count,
-          ceil(extract(epoch FROM date_trunc('minute', now()) + interval '1 minute' - now()))::int AS window_left,
-          o.id AS org_id, o.slug, o.name AS org_name`, { replacements: { hash: hashOf(token) }, type: QueryTypes.SELECT })
-    : []
+export const touchTokenSql = (hash: string) => `UPDATE read_tokens r SET last_used_at = now(),
+    window_count = CASE WHEN r.window_start = date_trunc('minute', now()) THEN r.window_count + 1 ELSE 1 END,
+    window_start = date_trunc('minute', now())
+  FROM organisations o
+  WHERE r.token_hash = ${hash} AND r.revoked_at IS NULL AND o.id = r.org_id
+  RETURNING r.id, r.name, r.table_ids::text[] AS table_ids, r.window_count,
+    ceil(extract(epoch FROM date_trunc('minute', now()) + interval '1 minute' - now()))::int AS window_left,
+    o.id AS org_id, o.slug, o.name AS org_name`
+
+/** The SHA-256 of the request's bearer token, or null when it carries none that could be one. */
+export function bearerHash(event: H3Event): string | null {
+  const token = /^Bearer\s+(\S+)$/i.exec(getRequestHeader(event, 'authorization') ?? '')?.[1] ?? ''
+  return token.startsWith(PREFIX) ? hashOf(token) : null
+}
+
+/** The access a touched token row gives: 401 without one (missing, unknown and revoked alike), 429 past the minute's limit. */
+export function tokenAccess(event: H3Event, row: Row | undefined): ReadAccess {
   if (!row) {
     setResponseHeader(event, 'www-authenticate', 'Bearer realm="knotwork"')
     throw apiError(401, 'read-token-required', 'A valid read token is needed: send "Authorization: Bearer <token>". An administrator creates tokens on the members page.')
@@ -100,4 +103,15 @@ export async function requireReadToken(event: H3Event): Promise<ReadAccess> {
   }
   return { tokenId: row.id as string, tokenName: row.name as string, org: { id: row.org_id as string, slug: row.slug as string, name: row.org_name as string },
     tableIds: (row.table_ids as string[] | null) ?? null }
+}
+
+/**
+ * The organisation a bearer token reads, or 401 (missing, unknown and revoked tokens answer alike). Each request is
+ * counted against the token's minute in the same UPDATE; beyond READ_REQUESTS_PER_MINUTE it answers 429 with
+ * Retry-After.
+ */
+export async function requireReadToken(event: H3Event): Promise<ReadAccess> {
+  const hash = bearerHash(event)
+  const [row] = hash ? await useDb().query<Row>(touchTokenSql(':hash'), { replacements: { hash }, type: QueryTypes.SELECT }) : []
+  return tokenAccess(event, row)
 }

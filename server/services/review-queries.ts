@@ -10,6 +10,12 @@ const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null)
 const join = (col: string, p: string) => `LEFT JOIN users ${p} ON ${p}.id = v.${col}`
 const cols = (p: string) => `${p}.id AS ${p}_id, ${p}.name AS ${p}_name, ${p}.email AS ${p}_email`
 
+/** Plain reasons a stale fill is refused (shown in the review panel too). */
+export const STALE_FILL = {
+  submit: 'The chosen fill was fitted on other points: the given points changed after the fill was chosen. Open the fill bench, compare on the current points and choose the fill again; then submit.',
+  approve: 'The recorded fill was fitted on other points than the ones this version holds, so what you would sign is not what was checked. Send it back so the fill can be chosen again on the current points.',
+} as const
+
 /** Maker-checker: the people who made this version (author, filler, submitter) may not sign it off. */
 export function makers(v: Pick<VersionRecord, 'authorId' | 'filledBy' | 'submittedBy'>): string[] {
   return [v.authorId, v.filledBy, v.submittedBy].filter((id): id is string => !!id)
@@ -31,18 +37,26 @@ export async function reviewState(access: OrgAccess, tableId: string, number: nu
     FROM table_versions v ${join('author_id', 'au')} ${join('filled_by', 'fb')} ${join('submitted_by', 'sb')} ${join('approved_by', 'ab')} ${join('retired_by', 'rb')}
     LEFT JOIN table_versions s2 ON s2.id = v.superseded_by WHERE v.id = :id`,
   { replacements: { id: v.id }, type: QueryTypes.SELECT })
+  // what a sign-off or a withdrawal changes: the version in force now, and the connected systems that read this table
+  const [reach] = await useDb().query<{ in_force: number | null; readers: number }>(`
+    SELECT (SELECT number FROM table_versions WHERE table_id = :tableId AND status = 'approved' AND id <> :id) AS in_force,
+           (SELECT count(*)::int FROM read_tokens WHERE org_id = :orgId AND revoked_at IS NULL AND (table_ids IS NULL OR :tableId = ANY(table_ids))) AS readers`,
+  { replacements: { id: v.id, tableId: v.tableId, orgId: access.org.id }, type: QueryTypes.SELECT })
   const madeThis = makers(v).includes(access.user.id)
   const mayDecide = can(access.role, 'reviews:decide')
   return {
-    versionId: v.id, number: v.number, status: v.status, hasFill: v.hasFill,
+    versionId: v.id, tableName: v.tableName, number: v.number, status: v.status,
+    inForce: reach?.in_force ?? null, connectedSystems: reach?.readers ?? 0, hasFill: v.hasFill, fillStale: v.hasFill && v.fillStale && (v.status === 'draft' || v.status === 'in-review'),
     author: person(r!, 'au'), filledBy: person(r!, 'fb'), submittedBy: person(r!, 'sb'), submittedAt: iso(r!.submitted_at),
     approvedBy: person(r!, 'ab'), approvedAt: iso(r!.approved_at), retiredBy: person(r!, 'rb'), retiredAt: iso(r!.retired_at),
     retireReason: (r!.retire_reason as string | null) ?? null, supersededBy: (r!.superseded_number as number | null) ?? null,
     comments: await listComments(v.id),
     you: {
       madeThis,
-      canSubmit: can(access.role, 'reviews:submit') && v.status === 'draft' && v.hasFill,
+      canSubmit: can(access.role, 'reviews:submit') && v.status === 'draft' && v.hasFill && !v.fillStale,
+      submitBlockedReason: v.status !== 'draft' ? null : !v.hasFill ? 'Record a fill on the fill bench before asking for a second check.' : v.fillStale ? STALE_FILL.submit : null,
       canDecide: mayDecide && v.status === 'in-review' && !madeThis,
+      signOffBlockedReason: v.status === 'in-review' && v.hasFill && v.fillStale ? STALE_FILL.approve : null,
       canRetire: mayDecide && v.status === 'approved',
       canExport: can(access.role, 'exports:download') && (v.status === 'approved' || v.status === 'retired'),
       decideBlockedReason: v.status === 'in-review' && mayDecide && madeThis ? 'You made, filled or submitted this version, so another actuary must sign it off.' : null,

@@ -23,8 +23,8 @@ async function createKey(orgId: string, t: Transaction): Promise<{ kid: string; 
   return { kid, x }
 }
 
-/** The active key (created now when the organisation has none), with its private key opened. */
-export async function activeSigningKey(event: H3Event, orgId: string): Promise<{ kid: string; x: string; privateKey: KeyObject }> {
+/** The active key (created now when the organisation has none), with its private key opened. `event`: who asked, for the audit trail. */
+export async function activeSigningKey(event: H3Event | null, orgId: string): Promise<{ kid: string; x: string; privateKey: KeyObject }> {
   const key = await inTransaction(async (t) => {
     await useDb().query('SELECT pg_advisory_xact_lock(hashtext(:k))', { replacements: { k: `signing-key:${orgId}` }, transaction: t })
     const [row] = await useDb().query<{ kid: string; public_x: string; private_sealed: string }>(
@@ -35,7 +35,21 @@ export async function activeSigningKey(event: H3Event, orgId: string): Promise<{
     const [fresh] = await useDb().query<{ private_sealed: string }>('SELECT private_sealed FROM org_signing_keys WHERE kid = :kid', { replacements: { kid: created.kid }, type: QueryTypes.SELECT, transaction: t })
     return { ...created, sealed: fresh!.private_sealed }
   })
-  return { kid: key.kid, x: key.x, privateKey: openPrivateKey(key.sealed, secret(), orgId, key.kid) }
+  return { kid: key.kid, x: key.x, privateKey: openSealedKey(orgId, key.kid, key.sealed) }
+}
+
+// Opened private keys by key id: a key never changes once made, so a node opens each once (the read API's hot path
+// signs the trail's head with it on every answer). Only this process's copy; the sealed key stays in PostgreSQL.
+const opened = new Map<string, KeyObject>()
+
+/** A sealed private key (org_signing_keys.private_sealed) opened with this server's signing secret. */
+export function openSealedKey(orgId: string, kid: string, sealed: string): KeyObject {
+  let key = opened.get(kid)
+  if (!key) {
+    key = openPrivateKey(sealed, secret(), orgId, kid)
+    opened.set(kid, key)
+  }
+  return key
 }
 
 export async function listSigningKeys(orgId: string): Promise<SigningKeyDto[]> {
@@ -44,7 +58,13 @@ export async function listSigningKeys(orgId: string): Promise<SigningKeyDto[]> {
   return rows.map(r => ({ ...publicJwk(r.public_x), status: r.status, createdAt: new Date(r.created_at).toISOString(), retiredAt: r.retired_at ? new Date(r.retired_at).toISOString() : null }))
 }
 
-/** Public key (x) of a key id of this organisation, current or retired; null when unknown. */
+/** Every public key (x) of this organisation by key id, current and retired: what a workbook may be signed with. */
+export async function publicKeysOf(orgId: string): Promise<Record<string, string>> {
+  const rows = await useDb().query<{ kid: string; public_x: string }>('SELECT kid, public_x FROM org_signing_keys WHERE org_id = :orgId', { replacements: { orgId }, type: QueryTypes.SELECT })
+  return Object.fromEntries(rows.map(r => [r.kid, r.public_x]))
+}
+
+/** One public key (x) of this organisation by its key id, or null. */
 export async function publicKeyById(orgId: string, kid: string): Promise<string | null> {
   const [row] = await useDb().query<{ public_x: string }>('SELECT public_x FROM org_signing_keys WHERE org_id = :orgId AND kid = :kid', { replacements: { orgId, kid }, type: QueryTypes.SELECT })
   return row?.public_x ?? null

@@ -2,6 +2,7 @@ import type Stripe from 'stripe'
 import { QueryTypes } from 'sequelize'
 import { BillingAccount } from '../database/models'
 import { syncBillingAccount } from './billing-sync'
+import { isUuid } from '#shared/schemas/route-params'
 
 /** The customer an event concerns, from whatever object it carries. */
 export function eventCustomer(event: Stripe.Event): string | null {
@@ -21,7 +22,7 @@ async function orgForCustomer(customerId: string): Promise<string | null> {
     throw error
   })
   const orgId = !customer || customer.deleted ? null : customer.metadata.org_id
-  return orgId && await BillingAccount.findByPk(orgId) ? orgId : null
+  return isUuid(orgId) && await BillingAccount.findByPk(orgId) ? orgId : null // metadata is free text: never cast it unchecked
 }
 
 /**

@@ -16,6 +16,9 @@ export async function findTable(orgId: string, tableId: string, options: LookupO
   return table ?? notFound('table')
 }
 
+/** The content hash of the points a version's fill was fitted on (fill_points_hash, migration 0701; before it, the bench's record). */
+export const FITTED_ON = `coalesce(v.fill_points_hash, v.fill_spec->'bench'->>'pointsHash')`
+
 /** What every caller needs to know about a version; other columns are read by id where needed. */
 export interface VersionRecord {
   id: string
@@ -30,6 +33,8 @@ export interface VersionRecord {
   submittedBy: string | null
   /** A fill is recorded (spec and values). */
   hasFill: boolean
+  /** The recorded fill was fitted on other points than the version holds now (its content hash differs). */
+  fillStale: boolean
 }
 
 /** Version `number` of the organisation's table, or 404. With `lock`, the version row is locked FOR UPDATE in the transaction. */
@@ -38,7 +43,8 @@ export async function findVersion(orgId: string, tableId: string, number: number
   if (!isUuid(tableId) || !Number.isSafeInteger(number)) notFound('version')
   const [row] = await useDb().query<Record<string, unknown>>(`
     SELECT v.id, v.number, v.status, v.table_id, rt.name AS table_name, v.lock_version, v.content_hash, v.author_id, v.filled_by, v.submitted_by,
-           (v.fill_spec IS NOT NULL AND EXISTS (SELECT 1 FROM version_fill_points f WHERE f.version_id = v.id)) AS has_fill
+           (v.fill_spec IS NOT NULL AND EXISTS (SELECT 1 FROM version_fill_points f WHERE f.version_id = v.id)) AS has_fill,
+           (v.fill_spec IS NOT NULL AND ${FITTED_ON} IS DISTINCT FROM v.content_hash) AS fill_stale
     FROM table_versions v JOIN rate_tables rt ON rt.id = v.table_id
     WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number ${lock && transaction ? 'FOR UPDATE OF v' : ''}`,
   { replacements: { orgId, tableId, number }, type: QueryTypes.SELECT, transaction })
@@ -47,7 +53,7 @@ export async function findVersion(orgId: string, tableId: string, number: number
     id: row.id as string, number: row.number as number, status: row.status as VersionStatus, tableId: row.table_id as string,
     tableName: row.table_name as string, lockVersion: row.lock_version as number, contentHash: row.content_hash as string,
     authorId: row.author_id as string | null, filledBy: row.filled_by as string | null, submittedBy: row.submitted_by as string | null,
-    hasFill: row.has_fill as boolean,
+    hasFill: row.has_fill as boolean, fillStale: row.fill_stale as boolean,
   }
 }
 

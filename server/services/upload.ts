@@ -28,11 +28,7 @@ export function readUpload(event: H3Event, maxBytes: number): Promise<{ fileName
       settled = true
       req.unpipe(bb)
       req.off('data', count)
-      // nothing more is stored; the rest is discarded for at most 2 s so the client can read the
-      // 4xx (closing with unread bytes would reset the connection), then the socket is destroyed
-      req.resume()
-      setTimeout(() => req.destroy(), 2000).unref()
-      event.node.res.setHeader('Connection', 'close')
+      stopReadingBody(event) // nothing more is stored
       reject(error)
     }
     const tooBig = () => new ImportRefused(413, `The file is larger than ${Math.round(maxBytes / 1048576)} MiB; Knotwork stopped reading it.`)

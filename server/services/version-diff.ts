@@ -3,6 +3,8 @@ import { D, canonicalDecimal } from '#shared/decimal-text'
 import type { DiffRowDto, DiffSideDto, VersionDiffDto } from '#shared/types/diff'
 import { findTable, findVersion } from './tables'
 import { readPoints, type PointTable } from './points-store'
+import { specRows, type SpecLike } from '#shared/fill-words'
+import { METHODS, TRANSFORM_LISTING } from '../engine/index'
 
 // Two versions of one table compared exactly (decimal.js): given points, filled values, fill settings, money view.
 type Row = Record<string, unknown>
@@ -38,13 +40,17 @@ function compareMaps(a: Map<string, string>, b: Map<string, string>) {
   return { rows, added: n('added'), removed: n('removed'), changed: n('changed'), largest }
 }
 
-const show = (v: unknown) => (v === undefined || v === null ? '—' : typeof v === 'string' ? v : JSON.stringify(v))
+/** The fill settings of both sides in words (shared/fill-words.ts), row by row, where they differ. */
+function settingsDiff(A: Side, B: Side): VersionDiffDto['settings'] {
+  const rows = (side: Side) => new Map((side.spec ? specRows(side.spec as unknown as SpecLike, METHODS, TRANSFORM_LISTING) : []).filter(r => r.label !== 'Engine version').map(r => [r.label, r.value]))
+  const [ra, rb] = [rows(A), rows(B)]
+  return [...new Set([...ra.keys(), ...rb.keys()])].map(field => ({ field, a: ra.get(field) ?? '—', b: rb.get(field) ?? '—' })).filter(s => s.a !== s.b)
+}
 
 export async function diffVersions(orgId: string, tableId: string, a: number, b: number): Promise<VersionDiffDto> {
   await findTable(orgId, tableId)
   const [A, B] = [await load(orgId, tableId, a), await load(orgId, tableId, b)]
-  const keys = [...new Set([...Object.keys(A.spec ?? {}), ...Object.keys(B.spec ?? {})])].filter(k => !['engineVersion', 'knotCount'].includes(k)).sort()
-  const settings = keys.map(k => ({ field: k, a: show(A.spec?.[k]), b: show(B.spec?.[k]) })).filter(s => s.a !== s.b)
+  const settings = settingsDiff(A, B)
   const figures = new Map<string, { label: string; a: string | null; b: string | null }>()
   for (const f of A.money?.figures ?? []) figures.set(f.key, { label: f.label, a: f.value, b: null })
   for (const f of B.money?.figures ?? []) figures.set(f.key, { label: f.label, a: figures.get(f.key)?.a ?? null, b: f.value })

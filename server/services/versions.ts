@@ -4,6 +4,7 @@ import type { OrgAccess } from '../utils/auth'
 import type { TableDto, VersionDto, VersionSummaryDto } from '#shared/types/tables'
 import type { SavePointsInput, TableUpdateInput } from '#shared/schemas/tables'
 import { checkAxis, checkValue } from '#shared/table-rules'
+import { UNIT_KIND_MESSAGE, unitFitsKind } from '#shared/tables'
 import { pointsContentHash } from '../lib/points-hash'
 import { RateTable } from '../database/models'
 import { insertPoints, readPoints } from './points-store'
@@ -54,6 +55,7 @@ export async function getVersion(orgId: string, tableId: string, number: number)
 export async function updateTable(event: H3Event, access: OrgAccess, tableId: string, input: TableUpdateInput): Promise<TableDto> {
   const table = await findTable(access.org.id, tableId)
   const meaning = (['kind', 'axis', 'axisUnit', 'valueUnit'] as const).filter(k => input[k] !== undefined && input[k] !== table[k])
+  if (!unitFitsKind(input.kind ?? table.kind, input.valueUnit ?? table.valueUnit)) throw apiError(400, 'invalid-input', UNIT_KIND_MESSAGE, { issues: [{ path: 'valueUnit', message: UNIT_KIND_MESSAGE }] })
   if (meaning.length) {
     // what the numbers mean is part of what a reviewer checked and signed: it is fixed once a version left draft
     const [row] = await useDb().query<{ n: number }>(`SELECT count(*)::int AS n FROM table_versions WHERE table_id = :tableId AND status <> 'draft'`, { replacements: { tableId: table.id }, type: QueryTypes.SELECT })

@@ -7,3 +7,11 @@ import type { ApiErrorCode } from '#shared/api-errors'
 export function apiError(statusCode: number, code: ApiErrorCode, message: string, extra: Record<string, unknown> = {}) {
   return createError({ statusCode, statusMessage: message, data: { ...extra, code } })
 }
+
+/**
+ * The JSON body of a refusal (the shape h3 sends for apiError), for the few answers that must be JSON whatever the
+ * client accepts: an unknown /api/ address asked for by a browser would otherwise get the app's HTML error page.
+ */
+export function apiErrorBody(statusCode: number, code: ApiErrorCode, message: string) {
+  return { error: true, statusCode, statusMessage: message, message, data: { code } }
+}

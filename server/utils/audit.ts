@@ -11,6 +11,8 @@ export interface AuditInput {
   outcome?: 'ok' | 'denied' | 'failed'
   detail?: Record<string, unknown>
   actor?: { id: string; email: string } | null
+  /** where the request came from, for an event written later by a run (no request at hand) */
+  origin?: { requestId: string | null; ip: string | null }
 }
 
 /** Appends an audit event; pass the change's transaction so both commit together. */
@@ -24,8 +26,8 @@ export async function audit(event: H3Event | null, input: AuditInput, transactio
     objectType: input.objectType ?? null,
     objectId: input.objectId ?? null,
     outcome: input.outcome ?? 'ok',
-    requestId: event?.context.requestId ?? null,
-    ip: event ? clientAddress(event) : null,
+    requestId: event?.context.requestId ?? input.origin?.requestId ?? null,
+    ip: event ? clientAddress(event) : (input.origin?.ip ?? null),
     detail: input.detail ?? {},
     at: new Date().toISOString(),
   }

@@ -18,7 +18,7 @@ export async function startSession(event: H3Event, user: User): Promise<void> {
     ip: clientAddress(event),
     userAgent: getRequestHeader(event, 'user-agent')?.slice(0, 300) ?? null,
   })
-  await replaceUserSession(event, { user: { id: user.id, email: user.email, name: user.name }, sid: record.id })
+  await writeSession(event, { user: { id: user.id, email: user.email, name: user.name }, sid: record.id })
   event.context.auth = { user: { id: user.id, email: user.email, name: user.name }, sessionId: record.id }
 }
 
@@ -36,12 +36,12 @@ export async function revokeSession(sessionId: string, reason: string) {
 /** 401 unless the sealed cookie names a live, unrevoked session record. Checked on every request. */
 export async function requireUser(event: H3Event): Promise<{ user: AuthUser; sessionId: string }> {
   if (event.context.auth) return event.context.auth
-  const session = await getUserSession(event)
-  const sid = session.sid
-  if (!session.user || !sid) throw apiError(401, 'sign-in-required', 'Sign in to continue.')
+  const session = await readSession(event)
+  const sid = session?.sid
+  if (!session?.user || !sid) throw apiError(401, 'sign-in-required', 'Sign in to continue.')
   const record = await SessionRecord.findByPk(sid)
+  // the dead cookie is left alone: a refusal never sets a cookie, and the next sign-in replaces it
   if (!record || record.revokedAt || record.expiresAt.getTime() < Date.now() || record.userId !== session.user.id) {
-    await clearUserSession(event)
     throw apiError(401, 'session-ended', 'Your session has ended. Sign in again.')
   }
   if (Date.now() - record.lastSeenAt.getTime() > 60_000) await record.update({ lastSeenAt: new Date() })

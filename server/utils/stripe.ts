@@ -49,3 +49,18 @@ export function stripeFailure(error: unknown): never {
   }
   throw error
 }
+
+/** How far a webhook's signed timestamp may be from our clock, either way (Stripe's own default for the past). */
+export const WEBHOOK_TOLERANCE_SECONDS = 300
+
+/**
+ * Verifies a webhook on its raw body and returns the event. The SDK refuses a bad signature and a timestamp more than
+ * the tolerance in the past; a timestamp more than the tolerance in the future is refused here (the SDK accepts it,
+ * which would let a captured signed body be replayed until that future time).
+ */
+export function verifyWebhook(raw: string | Buffer, signature: string, secret: string): Stripe.Event {
+  const event = useStripe().webhooks.constructEvent(raw, signature, secret, WEBHOOK_TOLERANCE_SECONDS)
+  const signedAt = Number(/(?:^|,)\s*t=(\d+)/.exec(signature)?.[1])
+  if (!(signedAt <= Date.now() / 1000 + WEBHOOK_TOLERANCE_SECONDS)) throw new Error('The signed timestamp lies in the future.')
+  return event
+}

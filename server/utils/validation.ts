@@ -19,6 +19,12 @@ export function readValidQuery<S extends z.ZodType>(event: H3Event, schema: S): 
   return parseOr400(schema, getQuery(event))
 }
 
+/**
+ * Route parameters (shared/schemas/route-params.ts): one that is not well formed names nothing, so it answers 404 with
+ * the schema's words ("No such table."), like a well-formed id that names nothing. It never reaches a database cast.
+ */
 export function readValidParams<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
-  return parseOr400(schema, getRouterParams(event, { decode: true }))
+  const result = schema.safeParse(getRouterParams(event, { decode: true }))
+  if (result.success) return result.data
+  throw apiError(404, 'not-found', result.error.issues[0]!.message)
 }

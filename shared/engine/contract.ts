@@ -2,6 +2,9 @@
 // the engine (server/engine), the shared code and the client all read these, and nothing here reads them back.
 // All table values are decimal strings.
 
+/** Caution to show beside every result and beside Sign off (OWNER_RULES: safety). */
+export const REVIEW_CAUTION = 'Filled values are a calculation aid. Before use in reserves or prices, they need review by a qualified actuary under the applicable actuarial standards and local regulation.'
+
 /** Interpolation methods, in the order the product lists them. */
 export const METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima', 'karup-king', 'sprague', 'beers', 'monotone-convex', 'smith-wilson'] as const
 export type MethodId = (typeof METHOD_IDS)[number]
@@ -246,7 +249,8 @@ export interface MoneyFigure {
 }
 
 export interface MoneyImpact {
-  basis: 'mortality' | 'curve' | 'none'
+  /** mortality and curve: money figures; persistency (lapse) and salary: money-free summaries */
+  basis: 'mortality' | 'curve' | 'persistency' | 'salary' | 'none'
   available: boolean
   reason?: string
   figures: MoneyFigure[]
@@ -296,7 +300,12 @@ export interface CompareResult {
 
 /** A method option as a client may show it: data only. */
 export interface OptionDescriptor {
+  /** The option's id in requests and stored specs (never shown to a person). */
   name: string
+  /** What a person reads: "Start slope", "Extra condition". */
+  label: string
+  /** Words for each enum value ("Straight first piece"); ids stay in requests and stored specs. */
+  valueLabels?: Record<string, string>
   type: 'enum' | 'decimal'
   values?: string[]
   /** Decimal options only: words accepted instead of a number (e.g. 'auto'), resolved by the method to a number. */

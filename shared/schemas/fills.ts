@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 import { EXTRAPOLATION_RULES, METHOD_IDS, TRANSFORM_IDS } from '../engine/contract'
 import { MAX_BENCH_METHODS, MAX_BENCH_POINTS, MIN_RATIONALE, gridPointCount, parseStep } from '../fills'
 

@@ -1,6 +1,6 @@
-import { z } from 'zod'
-import { AXES, AXIS_UNITS, TABLE_KINDS, VALUE_UNITS } from '../tables'
-import { IMPORT_COLUMNS_CAP } from '../import-caps'
+import { z } from '#shared/zod'
+import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFitsKind } from '../tables'
+import { IMPORT_COLUMNS_CAP, IMPORT_VALUE_COLUMNS_CAP } from '../import-caps'
 
 // The mapping a person builds in the wizard; the preview and the final create both
 // re-validate the stored cells against it on the server.
@@ -9,7 +9,7 @@ export const importColumnSchema = z.object({
   name: z.string().trim().min(1, { message: 'Give each new table a name' }).max(160),
   kind: z.enum(TABLE_KINDS),
   valueUnit: z.enum(VALUE_UNITS),
-})
+}).refine(c => unitFitsKind(c.kind, c.valueUnit), { path: ['valueUnit'], message: UNIT_KIND_MESSAGE })
 
 export const importMappingSchema = z.object({
   sheet: z.string().min(1).max(200),
@@ -17,7 +17,8 @@ export const importMappingSchema = z.object({
   axisColumn: z.number().int().min(0).max(IMPORT_COLUMNS_CAP - 1),
   axis: z.enum(AXES),
   axisUnit: z.enum(AXIS_UNITS),
-  columns: z.array(importColumnSchema).min(1, { message: 'Choose at least one value column' }).max(IMPORT_COLUMNS_CAP),
+  columns: z.array(importColumnSchema).min(1, { message: 'Choose at least one value column' })
+    .max(IMPORT_VALUE_COLUMNS_CAP, { message: `Choose at most ${IMPORT_VALUE_COLUMNS_CAP} value columns per import (each becomes a table); import the others in a second pass` }),
   /** fixes typed in the preview, keyed "row:col" (0-based sheet coordinates) */
   edits: z.record(z.string().regex(/^\d+:\d+$/), z.string().max(60)).default({}),
   description: z.string().max(4000).default(''),

@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 import { ROLES } from '../permissions'
 import { email, newPassword } from './auth'
 
@@ -13,7 +13,12 @@ export const seatsSchema = z.object({
     .min(1, { message: 'Keep at least 1 seat' }).max(500, { message: 'For more than 500 seats, write to us' }),
   // the form's own key, so a repeated submit does not change the subscription twice
   requestKey: z.uuid().optional(),
+  // the moment the confirmed preview was priced at (unix seconds): the change is prorated from exactly then
+  prorationDate: z.number().int().positive().optional(),
 })
+
+/** Asking what a change of seats will cost, before confirming it. */
+export const seatsPreviewSchema = seatsSchema.pick({ seats: true })
 
 export const acceptNewAccountSchema = z.object({
   name: z.string().trim().min(1, { message: 'Enter your name' }).max(120),

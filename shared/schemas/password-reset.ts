@@ -1,9 +1,9 @@
-import { z } from 'zod'
-import { email, newPassword } from './auth'
+import { z } from '#shared/zod'
+import { email, linkToken, newPassword } from './auth'
 
 export const passwordResetRequestSchema = z.object({ email })
 
 export const passwordResetConfirmSchema = z.object({
-  token: z.string().regex(/^[A-Za-z0-9_-]{22}$/, { message: 'This reset link is not valid' }),
+  token: linkToken,
   password: newPassword,
 })

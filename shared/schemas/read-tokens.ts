@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 
 const name = z.string().trim().min(1, { message: 'Name the token after the system that will use it' }).max(80, { message: 'Use at most 80 characters' })
 const PICK_ONE = 'Pick at least one table, or let the token read every table'

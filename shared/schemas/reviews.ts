@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '#shared/zod'
 
 // Forms of the review panel; the server validates exactly these.
 export const submitReviewSchema = z.object({ note: z.string().trim().max(4000).optional() })

@@ -1,5 +1,5 @@
-import { z } from 'zod'
-import { AXES, AXIS_UNITS, TABLE_KINDS, VALUE_UNITS } from '../tables'
+import { z } from '#shared/zod'
+import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFitsKind } from '../tables'
 import { MAX_SIGNIFICANT_DIGITS, canonicalDecimal, parseNumberText } from '../decimal-text'
 
 // Shared by the points grid (vee-validate through composables/zodForm.ts) and the handlers.
@@ -58,4 +58,4 @@ export const tableDetailsFormSchema = z.object({
   tags: z.string()
     .transform(text => [...new Set(text.split(',').map(t => t.trim()).filter(Boolean))])
     .pipe(z.array(z.string().max(40, { message: 'Keep each tag to 40 characters' })).max(20, { message: 'Use at most 20 tags' })),
-})
+}).refine(v => unitFitsKind(v.kind, v.valueUnit), { path: ['valueUnit'], message: UNIT_KIND_MESSAGE })

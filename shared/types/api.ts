@@ -89,3 +89,21 @@ export interface BillingStatusDto {
   status: string
   attention: boolean
 }
+
+/** What changing the seats will charge now (a preview from the payment service), shown before the change is confirmed. */
+export interface SeatsPreviewDto {
+  from: number
+  to: number
+  /** Charged to the card at once, in minor units (0 for a decrease or during a trial). */
+  amountDue: number
+  /** The proration on its own: negative for a decrease (a credit kept for the next invoices). */
+  prorated: number
+  currency: string
+  /** The moment the preview was priced at (unix seconds); the confirmed change uses it, so it charges exactly amountDue. */
+  prorationDate: number
+  periodEnd: string | null
+  /** The monthly amount at the new count, in minor units. */
+  monthlyAfter: number
+  card: { brand: string; last4: string } | null
+  trial: boolean
+}

@@ -41,6 +41,10 @@ export interface SavedFillDto {
   pointCount: number
   /** The version's points changed after the fill was saved: the fill no longer matches them. */
   stale: boolean
+  /** The points the fill was fitted on: the version's content hash then, and its lock version right after the fill was saved. */
+  fittedOn: { contentHash: string | null, lockVersion: number | null }
+  /** The settings in words (method, options, scale, grid, precision, engine), as the signed workbook shows them. */
+  settings: { label: string, value: string }[]
   lockVersion: number
   points?: { x: string, y: string }[]
 }

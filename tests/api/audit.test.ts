@@ -7,14 +7,15 @@ import type { AuditPageDto, AuditVerifyDto } from '#shared/types/audit'
 afterAll(closeOwnerDb)
 
 describe('audit trail', () => {
-  it('the role the app connects with cannot UPDATE or DELETE audit rows', async () => {
+  it('the role the app connects with cannot UPDATE or DELETE audit rows or signed checkpoints', async () => {
     const url = process.env.NUXT_DATABASE_URL
     expect(url, 'NUXT_DATABASE_URL (the app role) must be set by scripts/env.sh').toBeTruthy()
     const app = new Sequelize(url!, { dialect: 'postgres', dialectModule: pg, logging: false, pool: { max: 1 } })
     try {
       const [[who]] = await app.query('SELECT current_user AS u') as [[{ u: string }], unknown]
       expect(who.u).toBe(process.env.KW_PG_APP ?? 'knotwork_app')
-      for (const sql of ['UPDATE audit_events SET action = \'x\' WHERE id = (SELECT min(id) FROM audit_events)', 'DELETE FROM audit_events WHERE id = (SELECT min(id) FROM audit_events)', 'TRUNCATE audit_events']) {
+      for (const sql of ['UPDATE audit_events SET action = \'x\' WHERE id = (SELECT min(id) FROM audit_events)', 'DELETE FROM audit_events WHERE id = (SELECT min(id) FROM audit_events)', 'TRUNCATE audit_events',
+        'UPDATE audit_checkpoints SET head_seq = 1', 'DELETE FROM audit_checkpoints', 'TRUNCATE audit_checkpoints']) {
         const error = await app.query(sql).then(() => null, (e: Error) => e)
         expect(error?.message, sql).toMatch(/permission denied/)
       }

@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto'
 import { afterAll, describe, expect, it } from 'vitest'
 import { DEMO, FENWICK, closeOwnerDb, count, freshOrg, ownerDb, signedIn } from './helpers'
 import { stripe } from './fakes'
+import type { SeatsPreviewDto } from '#shared/types/api'
 
 afterAll(closeOwnerDb)
 
@@ -58,6 +59,29 @@ describe('billing', () => {
     const low = await admin.post<{ statusMessage: string }>(`/api/orgs/${FENWICK}/billing/seats`, { seats: 1 })
     expect(low.status).toBe(409)
     expect(low.body.statusMessage).toContain('in use')
+  })
+
+  it('previews what a change of seats will charge (the payment service\u2019s own preview), and the confirmed change charges exactly that', async () => {
+    const admin = await signedIn(DEMO.otherAdmin)
+    const before = await admin.get<Billing>(`/api/orgs/${FENWICK}/billing`)
+    const start = before.body.seats.purchased
+    const preview = await admin.post<SeatsPreviewDto>(`/api/orgs/${FENWICK}/billing/seats-preview`, { seats: start + 2 })
+    expect(preview.status).toBe(200)
+    expect(preview.body).toMatchObject({ from: start, to: start + 2, currency: 'eur', monthlyAfter: 4900 * (start + 2), card: { last4: '4242' }, trial: false })
+    // two more seats for the rest of the period: more than nothing, at most two seats' monthly price
+    expect(preview.body.amountDue).toBeGreaterThan(0)
+    expect(preview.body.amountDue).toBeLessThanOrEqual(2 * 4900)
+    // nothing changed yet
+    expect((await admin.get<Billing>(`/api/orgs/${FENWICK}/billing`)).body.seats.purchased).toBe(start)
+    const changed = await admin.post(`/api/orgs/${FENWICK}/billing/seats`, { seats: start + 2, requestKey: randomUUID(), prorationDate: preview.body.prorationDate })
+    expect(changed.status).toBe(200)
+    const after = await admin.get<Billing>(`/api/orgs/${FENWICK}/billing`)
+    const newest = after.body.invoices.filter(i => i.reason === 'subscription_update')[0]!
+    expect(newest.amountDue).toBe(preview.body.amountDue)
+    // a price worked out too long ago is not charged as it is
+    const old = await admin.post<{ data: { code: string } }>(`/api/orgs/${FENWICK}/billing/seats`, { seats: start + 3, prorationDate: Math.floor(Date.now() / 1000) - 7200 })
+    expect([old.status, old.body.data.code]).toEqual([409, 'reload-needed'])
+    expect((await admin.post(`/api/orgs/${FENWICK}/billing/seats-preview`, { seats: 1 })).status).toBe(409)
   })
 
   it('shows a failed payment to administrators, and clears it when the invoice is paid', async () => {

@@ -3,7 +3,7 @@ import ExcelJS from 'exceljs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, DEMO, LARKSPUR, closeOwnerDb, multipartFile, ownerDb, postRefusable, signedIn } from './helpers'
 import { filledDraft, newTable } from './review-helpers'
-import { SHEET, readWorkbookCells, signBytes, canonicalBytes, keyIdOf, writeSignedWorkbook, contentFromSheets } from '~~/server/lib/signing'
+import { SHEET, readWorkbookCells, signBytes, canonicalBytes, keyIdOf, writeSignedWorkbook, storedSignedContent, type SignedContent } from '~~/server/lib/signing'
 import type { ExportVerdictDto } from '#shared/types/exports'
 
 let auditor: Client, analyst: Client, felix: Client
@@ -43,8 +43,23 @@ describe('signed export against the built server', () => {
     expect(r.status).toBe(200)
     expect(r.body.verdict).toBe('genuine-current')
     expect(r.body.signed?.values).toBeGreaterThan(100)
+    expect(r.body.signed?.format).toBe('knotwork-signed-table/2')
+    // the file carries the trail's head, and the trail still reaches it
+    expect(r.body.trail?.state).toBe('present')
     const [[n]] = await ownerDb().query('SELECT count(*)::int AS n FROM audit_events WHERE action = \'export.download\' AND actor_email = :e', { replacements: { e: DEMO.auditor } }) as [[{ n: number }], unknown]
     expect(n.n).toBeGreaterThan(0)
+  })
+
+  it('every sheet lists points in ascending numeric order, under headings that name the axis and the unit', async () => {
+    const sheets = await readWorkbookCells(await download(auditor, curve))
+    for (const name of [SHEET.given, SHEET.filled]) {
+      const rows = sheets.get(name)!
+      expect(rows[0]).toEqual(['Term (years)', 'Spot rate (%)', 'Spot rate (%), every digit', 'Spot rate per unit, every digit'])
+      const xs = rows.slice(1).map(r => Number(r[0]))
+      expect(xs).toEqual([...xs].sort((a, b) => a - b))
+      expect(xs[0]).toBe(0.25) // 0.25 before 30, not after it (the old text order)
+      for (const r of rows.slice(1)) expect(Number(r[2]) / 100).toBeCloseTo(Number(r[3]), 12) // percent beside per unit
+    }
   })
 
   it('one changed value cell is named; an analyst may not export or verify', async () => {
@@ -59,11 +74,11 @@ describe('signed export against the built server', () => {
 
   it('a workbook signed with a key the organisation never had is "unknown key"; a plain workbook is "not signed"', async () => {
     const file = await download(auditor, curve)
-    const content = contentFromSheets(await readWorkbookCells(file))
+    const content = storedSignedContent(await readWorkbookCells(file)) as SignedContent
     const { publicKey, privateKey } = generateKeyPairSync('ed25519')
     const x = (publicKey.export({ format: 'jwk' }) as { x: string }).x
     const forged = { ...content, keyId: keyIdOf(x) }
-    const r = await check(auditor, await writeSignedWorkbook(forged, { signature: signBytes(canonicalBytes(forged), privateKey), keyId: keyIdOf(x), x }))
+    const r = await check(auditor, await writeSignedWorkbook(forged, { signature: signBytes(canonicalBytes(forged), privateKey), keyId: keyIdOf(x), x }, null))
     expect(r.body.verdict).toBe('unknown-key')
     const plain = await edit(file, wb => wb.removeWorksheet(wb.getWorksheet(SHEET.signature)!.id))
     expect((await check(auditor, plain)).body.verdict).toBe('not-signed')

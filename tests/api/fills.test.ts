@@ -71,7 +71,7 @@ describe('compare', () => {
     }
     expect((await running).status).toBe(200)
     expect(seen.every(p => p.total === 4 && p.done >= 0 && p.done <= 4)).toBe(true)
-    expect((await actuary.get(progressUrl)).body).toEqual({ done: 4, total: 4 })
+    expect((await actuary.get(progressUrl)).body).toEqual({ done: 4, total: 4, status: 'done' })
     expect((await (await signedIn(DEMO.analyst)).get(progressUrl)).status).toBe(404)
   })
 

@@ -4,38 +4,50 @@ import { randomBytes } from 'node:crypto'
 import http from 'node:http'
 import { Sequelize } from 'sequelize'
 import pg from 'pg'
+import { DEMO_PASSWORD, DEMO_PEOPLE, FENWICK, LARKSPUR } from '../demo-people'
+import { tokenIn, waitForMail } from './inbox'
 
 export const BASE = process.env.KW_BASE_URL ?? 'http://127.0.0.1:3000'
-import { DEMO_PASSWORD, DEMO_PEOPLE, FENWICK, LARKSPUR } from '../demo-people'
 
 export { DEMO_PASSWORD, FENWICK, LARKSPUR }
 export const DEMO = DEMO_PEOPLE
+/** The app's own origin (scripts/test.sh sets NUXT_PUBLIC_BASE_URL to KW_BASE_URL): every change a browser makes names it. */
+export const ORIGIN = new URL(BASE).origin
 
-let ipCounter = 0
-/** A distinct client address per client (the test server trusts X-Forwarded-For), so throttling tests stay apart. */
+/**
+ * A client address of its own per client (the test server trusts X-Forwarded-For), so the per-address throttles of one
+ * test never meet another's: random, because a counter starts again in every test file within the 15-minute windows.
+ */
 function nextAddress() {
-  ipCounter++
-  return `10.${(process.pid >> 8) & 255}.${process.pid & 255}.${ipCounter % 250 + 1}`
+  const [a, b, c] = randomBytes(3)
+  return `10.${a}.${b}.${c! % 254 + 1}`
 }
 
 export interface Reply<T = unknown> { status: number; body: T; headers: Headers }
 
-/** A person's browser: keeps the session cookie between requests. */
+/**
+ * A person's browser on one of the app's pages (against BASE, or another server's base URL): keeps the session cookie
+ * between requests and, as a browser does, names the page's origin on every change (Origin). A header given as '' is
+ * left out (to send no Origin at all).
+ */
 export class Client {
   cookie = ''
-  constructor(readonly address = nextAddress()) {}
+  /** the app node this browser talks to (two-node tests switch it; the cookie goes along) */
+  constructor(readonly address = nextAddress(), public base = BASE) {}
 
   async req<T = unknown>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply<T>> {
     const isRaw = body instanceof Uint8Array || body instanceof FormData || typeof body === 'string'
-    const res = await fetch(BASE + path, {
+    const all: Record<string, string> = {
+      ...(body !== undefined && !isRaw ? { 'content-type': 'application/json' } : {}),
+      ...(this.cookie ? { cookie: this.cookie } : {}),
+      ...(method !== 'GET' && method !== 'HEAD' ? { origin: this.base === BASE ? ORIGIN : new URL(this.base).origin } : {}),
+      'x-forwarded-for': this.address,
+      'accept': 'application/json',
+      ...headers,
+    }
+    const res = await fetch(this.base + path, {
       method,
-      headers: {
-        ...(body !== undefined && !isRaw ? { 'content-type': 'application/json' } : {}),
-        ...(this.cookie ? { cookie: this.cookie } : {}),
-        'x-forwarded-for': this.address,
-        'accept': 'application/json',
-        ...headers,
-      },
+      headers: Object.fromEntries(Object.entries(all).filter(([, v]) => v !== '')),
       body: body === undefined ? undefined : isRaw ? (body as BodyInit) : JSON.stringify(body),
       redirect: 'manual',
     })
@@ -62,21 +74,27 @@ export class Client {
   }
 }
 
-export async function signedIn(email: string, password = DEMO_PASSWORD) {
-  return new Client().login(email, password)
+export async function signedIn(email: string, password = DEMO_PASSWORD, base = BASE) {
+  return new Client(undefined, base).login(email, password)
 }
 
 export function uniqueEmail(prefix = 'person') {
   return `${prefix}-${randomBytes(5).toString('hex')}@example.test`
 }
 
-/** A new organisation with its admin signed in (sign-up). */
-export async function freshOrg(name = `Test Org ${randomBytes(3).toString('hex')}`) {
-  const client = new Client()
+/**
+ * A new organisation with its admin signed in, made the way a person does it: sign-up asks for the address, the link
+ * arrives in the fake inbox, and completing it names the organisation and sets the password. `base`: the app node.
+ */
+export async function freshOrg(name = `Test Org ${randomBytes(3).toString('hex')}`, base = BASE) {
+  const client = new Client(undefined, base)
   const email = uniqueEmail('admin')
   const password = 'correct horse battery staple'
-  const r = await client.post<{ memberships: { org: { slug: string; id: string } }[] }>('/api/auth/signup', { name: 'Test Admin', email, password, organisation: name })
-  if (r.status !== 201) throw new Error(`signup answered ${r.status}: ${JSON.stringify(r.body)}`)
+  const asked = await client.post('/api/auth/signup', { email })
+  if (asked.status !== 202) throw new Error(`signup answered ${asked.status}: ${JSON.stringify(asked.body)}`)
+  const token = tokenIn(await waitForMail(email, 'Finish creating'), '/confirm-signup')
+  const r = await client.post<{ memberships: { org: { slug: string; id: string } }[] }>('/api/auth/signup/complete', { token, name: 'Test Admin', password, organisation: name })
+  if (r.status !== 201) throw new Error(`signup/complete answered ${r.status}: ${JSON.stringify(r.body)}`)
   return { client, email, password, slug: r.body.memberships[0]!.org.slug, orgId: r.body.memberships[0]!.org.id }
 }
 
@@ -101,12 +119,12 @@ export async function count(sql: string, replacements: Record<string, unknown> =
  * POST a large body that the server may refuse before reading it all: the answer is taken as soon as it arrives, and a
  * connection the server closes mid-upload (EPIPE, reset) after answering is not an error. fetch would fail in that case.
  */
-export function postRefusable(client: Client, path: string, body: Buffer, contentType: string): Promise<{ status: number; text: string }> {
+export function postRefusable(client: Client, path: string, body: Buffer, contentType: string, headers: Record<string, string> = {}): Promise<{ status: number; text: string }> {
   const url = new URL(BASE + path)
   return new Promise((resolve, reject) => {
     let status = 0
     let text = ''
-    const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'x-forwarded-for': client.address, 'content-type': contentType, 'content-length': body.length } })
+    const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'origin': ORIGIN, 'x-forwarded-for': client.address, 'content-type': contentType, 'content-length': body.length, ...headers } })
     req.on('response', (res) => {
       status = res.statusCode ?? 0
       res.setEncoding('utf8')

@@ -1,6 +1,6 @@
 import http from 'node:http'
 import { afterAll, describe, expect, it } from 'vitest'
-import { BASE, DEMO, LARKSPUR, closeOwnerDb, signedIn } from './helpers'
+import { BASE, type Client, DEMO, LARKSPUR, ORIGIN, closeOwnerDb, count, ownerDb, signedIn } from './helpers'
 import { MINIMAL_PARTS, footprint, upload, workbook, zip } from './import-helpers'
 
 afterAll(closeOwnerDb)
@@ -23,7 +23,7 @@ describe('upload size', () => {
     const before = await footprint()
     const url = new URL(`${BASE}/api/orgs/${LARKSPUR}/imports`)
     const outcome = await new Promise<{ status: number; sentMiB: number }>((resolve, reject) => {
-      const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'x-forwarded-for': client.address, 'content-type': 'multipart/form-data; boundary=KW', 'transfer-encoding': 'chunked' } })
+      const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'origin': ORIGIN, 'x-forwarded-for': client.address, 'content-type': 'multipart/form-data; boundary=KW', 'transfer-encoding': 'chunked' } })
       let sent = 0
       let status = 0
       req.on('response', (res) => { status = res.statusCode ?? 0; res.resume(); res.on('end', () => resolve({ status, sentMiB: sent / 1048576 })) })
@@ -98,5 +98,71 @@ describe('row and column caps', () => {
   it('refuses more than 64 columns', async () => {
     const csv = `${Array.from({ length: 70 }, (_, i) => `c${i}`).join(',')}\n${Array.from({ length: 70 }, () => '1').join(',')}\n`
     await refused('wide.csv', csv, 413, /more than 64 columns/)
+  })
+})
+
+describe('limits by work', () => {
+  it('refuses an upload over 1,000,000 cells (rows × columns), naming the count and the limit', async () => {
+    const row = Array.from({ length: 50 }, (_, i) => `0.0${i}`).join(',')
+    const csv = `${Array.from({ length: 20_001 }, () => row).join('\n')}\n`
+    await refused('cells.csv', csv, 413, /20,001 rows × 50 columns = 1,000,050 cells; an upload may have at most 1,000,000/)
+  })
+
+  it('refuses more than 32 value columns in one import, naming the limit', async () => {
+    const client = await signedIn(DEMO.analyst)
+    const header = ['age', ...Array.from({ length: 34 }, (_, i) => `q${i}`)].join(',')
+    const up = await upload(client, LARKSPUR, 'many.csv', `${header}\n60,${Array.from({ length: 34 }, () => '0.01').join(',')}\n65,${Array.from({ length: 34 }, () => '0.02').join(',')}\n`)
+    expect(up.status).toBe(201)
+    const mapping = (n: number) => ({ sheet: up.body.sheets[0]!.name, headerRow: 0, axisColumn: 0, axis: 'age', axisUnit: 'years', edits: {}, description: '',
+      columns: Array.from({ length: n }, (_, i) => ({ index: i + 1, name: `Many columns ${i} ${up.body.id}`, kind: 'mortality', valueUnit: 'per-unit' })) })
+    const tooMany = await client.post<{ statusMessage: string }>(`/api/orgs/${LARKSPUR}/imports/${up.body.id}/preview`, mapping(33))
+    expect(tooMany.status).toBe(400)
+    expect(tooMany.body.statusMessage).toMatch(/at most 32 value columns per import/)
+    expect((await client.post(`/api/orgs/${LARKSPUR}/imports/${up.body.id}/preview`, mapping(32))).status).toBe(200)
+    await client.req('DELETE', `/api/orgs/${LARKSPUR}/imports/${up.body.id}`)
+  })
+})
+
+describe('concurrent imports per person', () => {
+  /** An upload whose body arrives slowly: it holds an import slot until `finish` (or `abort`). */
+  function slowUpload(client: Client) {
+    const url = new URL(`${BASE}/api/orgs/${LARKSPUR}/imports`)
+    let status = 0
+    const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'x-forwarded-for': client.address, 'content-type': 'multipart/form-data; boundary=KW', 'transfer-encoding': 'chunked' } })
+    const answered = new Promise<number>((resolve) => {
+      req.on('response', (res) => { status = res.statusCode ?? 0; res.resume(); res.on('end', () => resolve(status)) })
+      req.on('error', () => resolve(status))
+    })
+    req.write('--KW\r\nContent-Disposition: form-data; name="file"; filename="slow.csv"\r\nContent-Type: text/csv\r\n\r\nage,q\n60,0.01\n')
+    return { answered, finish: () => req.end('65,0.02\n\r\n--KW--\r\n'), abort: () => req.destroy() }
+  }
+  const slotsOf = (email: string) => count('SELECT 1 FROM import_slots s JOIN users u ON u.id = s.user_id WHERE u.email = :email', { email })
+
+  it('a third upload while two are being read gets 429 with Retry-After; another person is not held up; slots are given back', async () => {
+    const client = await signedIn(DEMO.analyst)
+    const first = slowUpload(client)
+    const second = slowUpload(client)
+    for (let i = 0; i < 600 && await slotsOf(DEMO.analyst) < 2; i++) await new Promise(resolve => setTimeout(resolve, 50))
+    expect(await slotsOf(DEMO.analyst)).toBe(2)
+    const third = await upload(client, LARKSPUR, 'third.csv', 'age,q\n60,0.01\n65,0.02\n')
+    expect(third.status).toBe(429)
+    expect(Number(third.headers.get('retry-after'))).toBeGreaterThan(0)
+    expect(third.body.statusMessage).toMatch(/already have 2 imports being read or checked/)
+    const colleague = await signedIn(DEMO.actuary)
+    const theirs = await upload(colleague, LARKSPUR, 'theirs.csv', 'age,q\n60,0.01\n65,0.02\n')
+    expect(theirs.status).toBe(201)
+    first.finish()
+    second.abort()
+    expect(await first.answered).toBe(201)
+    for (let i = 0; i < 600 && await slotsOf(DEMO.analyst) > 0; i++) await new Promise(resolve => setTimeout(resolve, 50))
+    expect(await slotsOf(DEMO.analyst)).toBe(0)
+    expect((await upload(client, LARKSPUR, 'fourth.csv', 'age,q\n60,0.01\n65,0.02\n')).status).toBe(201)
+  })
+
+  it('slots left by a crashed node expire', async () => {
+    await ownerDb().query(`INSERT INTO import_slots (user_id, work, started_at, expires_at)
+      SELECT id, 'upload', now() - interval '10 minutes', now() - interval '1 minute' FROM users, generate_series(1, 2) WHERE email = :email`, { replacements: { email: DEMO.analyst } })
+    const client = await signedIn(DEMO.analyst)
+    expect((await upload(client, LARKSPUR, 'after-crash.csv', 'age,q\n60,0.01\n65,0.02\n')).status).toBe(201)
   })
 })

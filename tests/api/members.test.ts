@@ -118,16 +118,24 @@ describe('roles and removal', () => {
     expect((await admin.get(`/api/orgs/${slug}/members`)).status).toBe(200)
   })
 
-  it('removal ends the member\u2019s sessions at once', async () => {
+  it('removal ends that membership\u2019s access at once and nothing else: the person\u2019s sessions and other organisation go on', async () => {
     const { client: admin, slug } = await freshOrg()
-    const { person, email, userId } = await inviteAndAccept(admin, slug, 'analyst')
-    const second = await signedIn(email, 'a long enough passphrase')
-    expect((await person.get(`/api/orgs/${slug}/tables`)).status).toBe(200)
-    expect((await admin.req('DELETE', `/api/orgs/${slug}/members/${userId}`)).status).toBe(200)
-    expect((await person.get('/api/me')).status).toBe(401)
-    expect((await second.get('/api/me')).status).toBe(401)
-    const again = await signedIn(email, 'a long enough passphrase')
-    expect((await again.get(`/api/orgs/${slug}/tables`)).status).toBe(404)
+    const person = await freshOrg() // administrator of their own organisation
+    expect((await invite(admin, slug, person.email, 'analyst')).status).toBe(201)
+    const token = tokenIn(await waitForMail(person.email, 'Join'), '/invitations')
+    const joined = await person.client.post<{ me: Me }>(`/api/invitations/${token}/accept`, {}) // signed in as the invitee
+    expect(joined.status).toBe(200)
+    const second = await signedIn(person.email, person.password)
+    expect((await person.client.get(`/api/orgs/${slug}/tables`)).status).toBe(200)
+    expect((await admin.req('DELETE', `/api/orgs/${slug}/members/${joined.body.me.user.id}`)).status).toBe(200)
+    for (const session of [person.client, second]) {
+      expect((await session.get(`/api/orgs/${slug}/tables`)).status).toBe(404)
+      expect((await session.get(`/api/orgs/${person.slug}/tables`)).status).toBe(200)
+      const me = await session.get<Me>('/api/me')
+      expect(me.status).toBe(200)
+      expect(me.body.memberships.map(m => m.org.slug)).toEqual([person.slug])
+    }
+    expect(await count('SELECT 1 FROM sessions s JOIN users u ON u.id = s.user_id WHERE u.email = :email AND s.revoked_at IS NOT NULL', { email: person.email })).toBe(0)
     expect((await admin.get<{ used: number }>(`/api/orgs/${slug}/seats`)).body.used).toBe(1)
   })
 })
@@ -159,5 +167,50 @@ describe('password reset', () => {
     const { ownerDb } = await import('./helpers')
     await ownerDb().query(`UPDATE password_resets SET expires_at = now() - interval '1 second' WHERE token_hash = encode(sha256(convert_to(:t, 'UTF8')), 'hex')`, { replacements: { t: token } })
     expect((await new Client().post('/api/auth/password-reset/confirm', { token, password: 'a fresh reset passphrase' })).status).toBe(400)
+  })
+
+  it('does the same work before answering whatever the address: both answer while users and password_resets are locked', async () => {
+    const { email } = await freshOrg()
+    const nobody = uniqueEmail('nobody')
+    const { ownerDb } = await import('./helpers')
+    const t = await ownerDb().transaction()
+    try {
+      await ownerDb().query('LOCK TABLE users, password_resets IN ACCESS EXCLUSIVE MODE', { transaction: t })
+      const waited = new Promise<never>((_, reject) => setTimeout(() => reject(new Error('a reset answer waited for the locked tables')), 20_000))
+      const [known, unknown] = await Promise.race([Promise.all([
+        new Client().post('/api/auth/password-reset', { email }),
+        new Client().post('/api/auth/password-reset', { email: nobody }),
+      ]), waited])
+      expect([known.status, unknown.status]).toEqual([200, 200])
+      expect(known.body).toEqual(unknown.body)
+    } finally {
+      await t.rollback()
+    }
+    // the lookup, the link and the mail came after the answer
+    await waitForMail(email, 'password')
+    expect(await count('SELECT 1 FROM audit_events WHERE action = \'auth.password-reset-request\' AND detail->>\'email\' = :email', { email: nobody })).toBe(0)
+  })
+
+  it('is throttled per client address (10 in 15 minutes) and per address asked about (5), alike for any address', async () => {
+    const asker = new Client()
+    for (let i = 0; i < 10; i++) expect((await asker.post('/api/auth/password-reset', { email: uniqueEmail('ask') })).status).toBe(200)
+    const blocked = await asker.post('/api/auth/password-reset', { email: uniqueEmail('ask') })
+    expect(blocked.status).toBe(429)
+    expect(Number(blocked.headers.get('retry-after'))).toBeGreaterThan(0)
+    const { email } = await freshOrg()
+    for (const target of [email, uniqueEmail('nobody')]) {
+      for (let i = 0; i < 5; i++) expect((await new Client().post('/api/auth/password-reset', { email: target })).status).toBe(200)
+      expect((await new Client().post('/api/auth/password-reset', { email: target })).status).toBe(429)
+    }
+  })
+
+  it('lifts a lock someone else put on the account: after a reset its owner signs in at once', async () => {
+    const { email } = await freshOrg()
+    for (let i = 0; i < 10; i++) expect((await new Client().post('/api/auth/login', { email, password: `someone else ${i}` })).status).toBe(401)
+    expect((await new Client().post('/api/auth/login', { email, password: 'still guessing' })).status).toBe(429)
+    await new Client().post('/api/auth/password-reset', { email })
+    const token = tokenIn(await waitForMail(email, 'password'), '/reset-password')
+    expect((await new Client().post('/api/auth/password-reset/confirm', { token, password: 'the owner\u2019s new passphrase' })).status).toBe(200)
+    expect((await new Client().post('/api/auth/login', { email, password: 'the owner\u2019s new passphrase' })).status).toBe(200)
   })
 })

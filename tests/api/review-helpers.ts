@@ -29,8 +29,9 @@ export async function filledDraft(tableId: string, authorEmail: string, bump = '
   for (let age = 60; age <= 70; age++) {
     await ownerDb().query('INSERT INTO version_fill_points (version_id, x, y) VALUES (:id, :x, :y)', { replacements: { id: v.id, x: age, y: (0.01 + (age - 60) * 0.0014 + Number(bump)).toFixed(6) } })
   }
+  // the content hash of the points, and the fill recorded as fitted on them (kw_points_hash: migration 0701)
   await ownerDb().query(`UPDATE table_versions SET fill_spec = :spec::jsonb, fill_rationale = 'Linear is enough for a test.', fill_diagnostics = '{"knotsReproduced": true}'::jsonb,
-    fill_money = :money::jsonb, filled_by = :author, filled_at = now() WHERE id = :id`,
+    fill_money = :money::jsonb, filled_by = :author, filled_at = now(), content_hash = kw_points_hash(id), fill_points_hash = kw_points_hash(id), fill_lock_version = lock_version WHERE id = :id`,
   { replacements: { id: v.id, author, spec: JSON.stringify({ method: 'linear', options: {}, transform: 'none', precision: 40, grid: { from: '60', to: '70', step: '1' } }), money: JSON.stringify({ basis: 'mortality', available: true, figures: [{ key: 'e65', label: 'e_65', value: bump === '0' ? '17.1' : '17.4' }] }) } })
   return v
 }

@@ -60,6 +60,8 @@ describe('route matrix', () => {
         // every refusal carries a machine-readable code (shared/api-errors.ts) that the client decides on
         const code = (r.body as { data?: { code?: unknown } } | null)?.data?.code
         if (r.status >= 400 && r.status < 500 && !(API_ERROR_CODES as readonly unknown[]).includes(code)) problems.push(`${caller}: ${r.status} without a known data.code (${String(code)})`)
+        // a refusal never touches the session cookie (a fresh empty one used to sign a forged request's victim out)
+        if (r.status >= 400 && r.headers.getSetCookie().length) problems.push(`${caller}: ${r.status} sets a cookie: ${r.headers.getSetCookie().join(' | ')}`)
       }
       expect(problems).toEqual([])
     })

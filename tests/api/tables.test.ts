@@ -64,7 +64,9 @@ describe('table details', () => {
     const url = await freshTable(analyst)
     expect((await analyst.req('PATCH', url, { valueUnit: 'per-mille' })).status).toBe(200)
     const id = url.split('/').pop()
-    await ownerDb().query(`UPDATE table_versions SET status = 'in-review' WHERE table_id = :id`, { replacements: { id } })
+    // a version awaiting a second check carries a fill fitted on its own points (the database insists, migration 0701)
+    await ownerDb().query(`INSERT INTO version_fill_points (version_id, x, y) SELECT p.version_id, p.x, p.y FROM version_points p JOIN table_versions v ON v.id = p.version_id WHERE v.table_id = :id;
+      UPDATE table_versions SET fill_spec = '{"method": "linear"}', fill_points_hash = kw_points_hash(id), status = 'in-review' WHERE table_id = :id`, { replacements: { id } })
     const refused = await analyst.req<{ statusMessage: string }>('PATCH', url, { kind: 'lapse' })
     expect(refused.status).toBe(409)
     expect(refused.body.statusMessage).toMatch(/cannot change once a version/)

@@ -35,14 +35,27 @@ describe('Stripe webhook', () => {
   it('refuses a bad signature and an altered body with 400', async () => {
     const payload = eventOf('customer.updated', { id: 'cus_nobody', object: 'customer' } as { id: string })
     expect((await postWebhook(payload, { secret: 'whsec_not_the_right_secret' })).status).toBe(400)
-    const res = await fetch(`${process.env.KW_BASE_URL}/api/webhooks/stripe`, { method: 'POST', body: payload, headers: { 'stripe-signature': 't=1,v1=00' } })
+    const res = await fetch(`${process.env.KW_BASE_URL}/api/webhooks/stripe`, { method: 'POST', body: payload, headers: { 'content-type': 'application/json', 'stripe-signature': 't=1,v1=00' } })
     expect(res.status).toBe(400)
+  })
+
+  it('takes JSON only, as Stripe sends it (415 otherwise)', async () => {
+    const payload = eventOf('customer.updated', { id: 'cus_nobody', object: 'customer' } as { id: string })
+    const res = await fetch(`${process.env.KW_BASE_URL}/api/webhooks/stripe`, { method: 'POST', body: payload, headers: { 'content-type': 'text/plain', 'stripe-signature': 't=1,v1=00' } })
+    expect(res.status).toBe(415)
   })
 
   it('refuses a timestamp older than 5 minutes (the SDK\u2019s default tolerance of 300 s)', async () => {
     const payload = eventOf('customer.updated', { id: 'cus_nobody', object: 'customer' } as { id: string })
     expect((await postWebhook(payload, { timestamp: Math.floor(Date.now() / 1000) - 301 })).status).toBe(400)
     expect((await postWebhook(payload, { timestamp: Math.floor(Date.now() / 1000) - 200 })).status).toBe(200)
+  })
+
+  it('refuses a timestamp more than 5 minutes in the future (the SDK checks only the past), and allows clock skew below that', async () => {
+    const payload = eventOf('customer.updated', { id: 'cus_nobody', object: 'customer' } as { id: string })
+    expect((await postWebhook(payload, { timestamp: Math.floor(Date.now() / 1000) + 600 })).status).toBe(400)
+    expect((await postWebhook(payload, { timestamp: Math.floor(Date.now() / 1000) + 330 })).status).toBe(400)
+    expect((await postWebhook(payload, { timestamp: Math.floor(Date.now() / 1000) + 60 })).status).toBe(200)
   })
 
   it('processes the same event once', async () => {

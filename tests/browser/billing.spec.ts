@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto'
-import { expect, test } from '@playwright/test'
+import { expect, test } from './fixtures'
 import { PEOPLE, shot, signIn, useOwnAddress } from './helpers'
 
 const INBOX = (process.env.KW_MAIL_INBOX_URL ?? '').replace(/\/+$/, '')
@@ -26,11 +26,22 @@ test('the admin raises seats from 5 to 8, sees the proration invoice, invites an
 
   await page.getByLabel('Seats', { exact: true }).fill('8')
   await page.getByTestId('seats-submit').click()
+  // nothing is charged before the admin has read what it will cost (the payment service's preview)
+  const confirm = page.getByTestId('confirm-seats')
+  await expect(confirm).toBeVisible()
+  await expect(confirm).toContainText('Change seats from 5 to 8?')
+  const charge = (await confirm.getByTestId('seats-charge').textContent()) ?? ''
+  expect(charge).toMatch(/€[\d,.]+ will be charged now to Visa •••• 4242/)
+  await expect(confirm).toContainText('a month for 8 seats')
+  await shot(page, 'billing-confirm-seats')
+  await expect(page.getByTestId('billing-seats-purchased')).toHaveText('5')
+  await confirm.getByTestId('confirm-seats-confirm').click()
   await expect(page.getByTestId('billing-seats-purchased')).toHaveText('8')
   const proration = page.getByTestId('invoice-subscription_update')
   await expect(proration).toBeVisible()
   await expect(proration).toContainText('Seat change')
   await expect(proration).toContainText('Paid')
+  await expect(proration).toContainText(/€[\d,.]+/.exec(charge)![0]) // the invoice is the amount the admin confirmed
   await shot(page, 'billing-after-seats')
 
   const email = `auditor-${randomBytes(4).toString('hex')}@larkspur.example`

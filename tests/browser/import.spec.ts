@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test'
+import { expect, test } from './fixtures'
 import { PEOPLE, shot, signIn } from './helpers'
 
 test('an analyst imports the demo workbook, fixes the flagged cell, creates the drafts and finds them', async ({ page }) => {

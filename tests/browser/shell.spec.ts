@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test'
+import { expect, test } from './fixtures'
 import { PEOPLE, shot, signIn, useOwnAddress } from './helpers'
 
 test('the sign-in page explains itself and shows the caution', async ({ page }) => {

@@ -1,4 +1,5 @@
-import { expect, test, type Page } from '@playwright/test'
+import type { Page } from '@playwright/test'
+import { expect, test } from './fixtures'
 import { PEOPLE, shot, signIn } from './helpers'
 
 const ORG = 'larkspur-mutual'
@@ -37,7 +38,7 @@ test('an actuary compares three methods, moves the quadratic condition, and choo
   await page.getByTestId('option-quadratic-condition').selectOption('right-zero-curvature')
   await page.getByTestId('bench-compare').click()
   await waitForRun(page)
-  const right = zig.locator('td[data-method="Quadratic spline · right-zero-curvature"]')
+  const right = zig.locator('td[data-method="Quadratic spline · Straight last piece"]')
   await expect(right).toContainText(/5 changes, at 60, 65, 70/)
   await expect(quadCol).not.toHaveText(before ?? '')
   await shot(page, 'bench-quadratic-right')

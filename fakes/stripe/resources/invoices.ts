@@ -8,6 +8,7 @@ import { pullPendingItems } from '../billing/invoice_items.ts'
 import { finalizeInvoice, invoiceSubscription, newInvoice, recomputeTotals } from '../billing/invoices.ts'
 import { markPaid, attemptPayment } from '../billing/payment.ts'
 import { attachedPaymentMethod } from '../billing/subscription_parts.ts'
+import { previewInvoice } from '../billing/preview.ts'
 
 const get = (ctx: Ctx) => ctx.store.require('invoices', ctx.params.id!, 'invoice')
 
@@ -104,6 +105,7 @@ function list(ctx: Ctx): Obj {
 
 export const routes: Route[] = [
   ...resourceRoutes('/v1/invoices', { create, list, retrieve: get, update, remove }),
+  { method: 'POST', path: '/v1/invoices/create_preview', handler: previewInvoice },
   { method: 'GET', path: '/v1/invoices/:id/lines', handler: (ctx) => listResponse([...get(ctx).lines.data], ctx.body, `/v1/invoices/${ctx.params.id}/lines`) },
   { method: 'POST', path: '/v1/invoices/:id/finalize', handler: finalize },
   { method: 'POST', path: '/v1/invoices/:id/pay', handler: pay },

@@ -1,9 +1,7 @@
+import { signOut } from '~~/server/services/auth'
+
+// Ends this session on the server and deletes the cookie.
 export default defineEventHandler(async (event) => {
-  const session = await getUserSession(event)
-  if (session.sid && session.user) {
-    await revokeSession(session.sid, 'signed out')
-    await audit(event, { action: 'auth.sign-out', objectType: 'session', objectId: session.sid, actor: { id: session.user.id, email: session.user.email } })
-  }
-  await clearUserSession(event)
+  await signOut(event)
   return { ok: true }
 })

@@ -8,8 +8,8 @@ export const cubicClamped: MethodDefinition = {
   source: 'Cubic spline with given first derivatives at both ends (de Boor, A Practical Guide to Splines, 2001, ch. IV, "complete" spline; scipy.interpolate.CubicSpline bc_type=((1, s0), (1, s1))).',
   summary: 'Twice continuously differentiable; the end slopes are set by the user (default 0, i.e. flat ends). Wrong end slopes bend the end pieces.',
   options: [
-    { name: 'startSlope', type: 'decimal', default: '0', description: 'dy/dx at the first point (on the transformed scale when a transform is chosen).' },
-    { name: 'endSlope', type: 'decimal', default: '0', description: 'dy/dx at the last point (on the transformed scale when a transform is chosen).' },
+    { name: 'startSlope', label: 'Start slope', type: 'decimal', default: '0', description: 'dy/dx at the first point (on the transformed scale when a transform is chosen).' },
+    { name: 'endSlope', label: 'End slope', type: 'decimal', default: '0', description: 'dy/dx at the last point (on the transformed scale when a transform is chosen).' },
   ],
   affine: true,
   fit(x, y, options, D) {

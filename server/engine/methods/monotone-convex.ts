@@ -11,8 +11,10 @@ export const monotoneConvex: MethodDefinition = {
   options: [
     {
       name: 'positivity',
+      label: 'Keep forwards positive',
       type: 'enum',
       values: ['on', 'off'],
+      valueLabels: { on: 'Yes (bound each forward)', off: 'No (unbounded estimates)' },
       default: 'on',
       description: 'Bound the forward at each given term to [0, twice the smaller neighbouring discrete forward] (Hagan and West\'s positivity step); off keeps the unbounded estimates.',
     },

@@ -35,16 +35,19 @@ export const quadratic: MethodDefinition = {
   options: [
     {
       name: 'condition',
+      label: 'Extra condition',
       type: 'enum',
       values: ['left-zero-curvature', 'right-zero-curvature', 'left-slope', 'right-slope'],
+      valueLabels: { 'left-zero-curvature': 'Straight first piece', 'right-zero-curvature': 'Straight last piece', 'left-slope': 'Given start slope', 'right-slope': 'Given end slope' },
       default: 'left-zero-curvature',
-      description: 'The extra equation: zero curvature on the first piece (the first piece is a straight line; the textbook choice), on the last piece, or a given slope at the left or right end.',
+      description: 'The extra equation: zero curvature on the first piece (the first piece is a straight line; the textbook choice), on the last piece, or a given slope at the start or the end.',
     },
     {
       name: 'slope',
+      label: 'Slope at that end',
       type: 'decimal',
       default: '0',
-      description: 'The end slope dy/dx for left-slope or right-slope.',
+      description: 'dy/dx at the start (Given start slope) or at the end (Given end slope).',
       appliesWhen: { condition: ['left-slope', 'right-slope'] },
     },
   ],

@@ -49,6 +49,7 @@ export function guessUnit(header: string, values: string[], kind: TableKind): { 
   const h = header.toLowerCase()
   if (/\u2030|per ?mille|permille|per 1,?000|per thousand/.test(h)) return { unit: 'per-mille', reason: 'the header says per mille' }
   if (/%|percent|per cent/.test(h)) return { unit: 'percent', reason: 'the header says percent' }
+  if (kind === 'spot-rate' && /\bbps?\b|basis points?/.test(h)) return { unit: 'basis-points', reason: 'the header says basis points' }
   if (values.some(v => v.trim().endsWith('%'))) return { unit: 'percent', reason: 'cells are written with %' }
   if (kind === 'mortality' || kind === 'lapse') {
     const max = Math.max(...values.map(v => parseNumberText(v)).filter(p => p.ok && p.scale === 1).map(p => Number((p as { value: string }).value)))

@@ -1,6 +1,6 @@
 // Caps that keep a hostile or oversized spreadsheet from exhausting the server.
 // Each one has a test in tests/api/import-limits.test.ts.
-import { IMPORT_COLUMNS_CAP, IMPORT_UPLOAD_BYTES } from '#shared/import-caps'
+import { IMPORT_CELLS_CAP, IMPORT_COLUMNS_CAP, IMPORT_ROWS_CAP, IMPORT_UPLOAD_BYTES } from '#shared/import-caps'
 
 export const IMPORT_LIMITS = {
   /** request body bytes, counted as they arrive (never taken from Content-Length) */
@@ -12,8 +12,10 @@ export const IMPORT_LIMITS = {
   totalInflatedBytes: 300 * 1024 * 1024,
   /** declared uncompressed / compressed, for entries above 1 MiB uncompressed */
   compressionRatio: 120,
-  rows: 200_000,
+  rows: IMPORT_ROWS_CAP,
   columns: IMPORT_COLUMNS_CAP,
+  /** rows x columns over all sheets */
+  cells: IMPORT_CELLS_CAP,
   /** an upload's parsed cells are kept this long for the wizard steps */
   keepHours: 24,
 } as const

@@ -1,18 +1,13 @@
 import { Readable } from 'node:stream'
 import ExcelJS from 'exceljs'
-import { parse as parseCsv } from 'csv-parse/sync'
 import { D, canonicalDecimal } from '#shared/decimal-text'
 import { IMPORT_LIMITS, ImportRefused } from './limits'
 import { guardXlsxZip } from './zip-guard'
+import { readCsv } from './read-csv'
+import { trimRow, type StoredSheet } from './stored-sheet'
+import { yieldToEventLoop } from '../event-loop'
 
-/** One sheet as stored in imports.sheets: cell text by 0-based row and column. */
-export interface StoredSheet {
-  name: string
-  rows: (string | null)[][]
-  /** "row:col" of cells holding a formula: refused, their cached result may be stale */
-  formulas: string[]
-  colCount: number
-}
+export type { StoredSheet } from './stored-sheet'
 
 const L = IMPORT_LIMITS
 const OLE = Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1])
@@ -56,14 +51,15 @@ function cellText(value: CellValue, numFmt: string | undefined): { text: string 
   return { text: null, formula: false }
 }
 
-function trimRow(row: (string | null)[]) {
-  while (row.length && (row[row.length - 1] === null || row[row.length - 1] === '')) row.pop()
-  return row
-}
+const cellsRefused = (cap: number) => new ImportRefused(413, `The workbook has more than ${cap.toLocaleString('en-GB')} cells (rows × columns, over all its sheets); remove unused rows, columns or sheets, or split it.`)
 
-/** The rows of one sheet into a StoredSheet, with the row and column caps and formula cells noted. */
-async function storeSheet(name: string, rows: AsyncIterable<ExcelJS.Row> | Iterable<ExcelJS.Row>): Promise<StoredSheet> {
+/** Cells (rows x columns) counted over the sheets of one upload, against the cap. */
+interface CellBudget { used: number; cap: number }
+
+/** The rows of one sheet into a StoredSheet, with the row, column and cell caps and formula cells noted. */
+async function storeSheet(name: string, rows: AsyncIterable<ExcelJS.Row> | Iterable<ExcelJS.Row>, budget: CellBudget): Promise<StoredSheet> {
   const stored: StoredSheet = { name, rows: [], formulas: [], colCount: 0 }
+  let sliceStart = performance.now()
   for await (const row of rows) {
     const r = row.number - 1
     if (r >= L.rows + 1) throw new ImportRefused(413, `Sheet '${name}' has more than ${L.rows.toLocaleString('en-GB')} rows; split the file or remove unused rows.`)
@@ -77,33 +73,38 @@ async function storeSheet(name: string, rows: AsyncIterable<ExcelJS.Row> | Itera
     for (let i = 0; i < out.length; i++) out[i] ??= null
     stored.rows[r] = trimRow(out)
     stored.colCount = Math.max(stored.colCount, stored.rows[r]!.length)
+    if (budget.used + (r + 1) * stored.colCount > budget.cap) throw cellsRefused(budget.cap)
+    if (performance.now() - sliceStart > 10) { await yieldToEventLoop(); sliceStart = performance.now() } // let other requests in
   }
   for (let i = 0; i < stored.rows.length; i++) stored.rows[i] ??= []
+  budget.used += stored.rows.length * stored.colCount
   return stored
 }
 
 /** Whole workbook in memory (JSZip): deterministic; used up to IN_MEMORY_BYTES of inflated parts. */
-export async function readInMemory(buf: Buffer): Promise<StoredSheet[]> {
+export async function readInMemory(buf: Buffer, cellsCap: number = L.cells): Promise<StoredSheet[]> {
   const wb = new ExcelJS.Workbook()
   await wb.xlsx.load(buf as unknown as ArrayBuffer)
   const sheets: StoredSheet[] = []
+  const budget: CellBudget = { used: 0, cap: cellsCap }
   for (const ws of wb.worksheets) {
     const rows: ExcelJS.Row[] = []
     ws.eachRow({ includeEmpty: false }, row => rows.push(row))
-    sheets.push(await storeSheet(ws.name, rows))
+    sheets.push(await storeSheet(ws.name, rows, budget))
   }
   return sheets
 }
 
 /** Sheet by sheet, row by row (exceljs's streaming reader): bounded memory for large workbooks. */
-export async function readStreaming(buf: Buffer): Promise<StoredSheet[]> {
+export async function readStreaming(buf: Buffer, cellsCap: number = L.cells): Promise<StoredSheet[]> {
   const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(buf), {
     sharedStrings: 'cache', hyperlinks: 'ignore', styles: 'cache', worksheets: 'emit', entries: 'emit',
   })
   const sheets: StoredSheet[] = []
+  const budget: CellBudget = { used: 0, cap: cellsCap }
   for await (const ws of reader) {
     const sheet = ws as unknown as { name: string } & AsyncIterable<ExcelJS.Row>
-    sheets.push(await storeSheet(sheet.name, sheet))
+    sheets.push(await storeSheet(sheet.name, sheet, budget))
   }
   return sheets
 }
@@ -117,12 +118,12 @@ export async function readStreaming(buf: Buffer): Promise<StoredSheet[]> {
 const IN_MEMORY_BYTES = 8 * 1024 * 1024
 const STREAMING_TRIES = 3
 
-async function readXlsx(buf: Buffer): Promise<StoredSheet[]> {
+async function readXlsx(buf: Buffer, cellsCap: number): Promise<StoredSheet[]> {
   const { inflatedBytes } = await guardXlsxZip(buf)
   let sheets: StoredSheet[] | null = null
   for (let attempt = 1; !sheets; attempt++) {
     try {
-      sheets = inflatedBytes <= IN_MEMORY_BYTES ? await readInMemory(buf) : await readStreaming(buf)
+      sheets = inflatedBytes <= IN_MEMORY_BYTES ? await readInMemory(buf, cellsCap) : await readStreaming(buf, cellsCap)
     } catch (e) {
       if (e instanceof ImportRefused) throw e
       console.warn(`[import] xlsx read failed (${inflatedBytes} inflated bytes, attempt ${attempt}):`, (e as Error)?.stack ?? e)
@@ -135,36 +136,8 @@ async function readXlsx(buf: Buffer): Promise<StoredSheet[]> {
   return sheets
 }
 
-function decodeText(buf: Buffer): string {
-  try {
-    return new TextDecoder('utf-8', { fatal: true }).decode(buf).replace(/^\uFEFF/, '')
-  } catch {
-    return new TextDecoder('windows-1252').decode(buf)
-  }
-}
-
-function readCsv(fileName: string, buf: Buffer): StoredSheet[] {
-  let lines = 0
-  for (let i = buf.indexOf(10); i !== -1; i = buf.indexOf(10, i + 1)) {
-    if (++lines > L.rows + 1) throw new ImportRefused(413, `The file has more than ${L.rows.toLocaleString('en-GB')} rows; split the file or remove unused rows.`)
-  }
-  const text = decodeText(buf)
-  const sample = text.split(/\r?\n/, 20).join('\n')
-  const delimiter = ([',', ';', '\t'] as const).map(d => [d, sample.split(d).length] as const).sort((a, b) => b[1] - a[1])[0]![0]
-  let records: string[][]
-  try {
-    records = parseCsv(text, { delimiter, relax_column_count: true, relax_quotes: true, skip_empty_lines: false, bom: true }) as string[][]
-  } catch {
-    throw new ImportRefused(400, 'The CSV file could not be read (unbalanced quotes?). Save it again and retry.')
-  }
-  const rows = records.map(rec => trimRow(rec.map(v => (v.trim() === '' ? null : v))))
-  const colCount = rows.reduce((m, r) => Math.max(m, r.length), 0)
-  if (colCount > L.columns) throw new ImportRefused(413, `The file uses more than ${L.columns} columns; remove unused columns.`)
-  return [{ name: fileName.replace(/\.[^.]+$/, '').slice(0, 100) || 'CSV', rows, formulas: [], colCount }]
-}
-
-/** Reads an upload already checked for size: sniffs its real kind, guards it, returns its cells. */
-export async function readWorkbook(fileName: string, buf: Buffer): Promise<{ kind: 'xlsx' | 'csv'; sheets: StoredSheet[] }> {
+/** Reads an upload already checked for size: sniffs its real kind, guards it, returns its cells (at most `cellsCap`). */
+export async function readWorkbook(fileName: string, buf: Buffer, cellsCap: number = L.cells): Promise<{ kind: 'xlsx' | 'csv'; sheets: StoredSheet[] }> {
   const kind = sniffKind(fileName, buf)
-  return { kind, sheets: kind === 'xlsx' ? await readXlsx(buf) : readCsv(fileName, buf) }
+  return { kind, sheets: kind === 'xlsx' ? await readXlsx(buf, cellsCap) : await readCsv(fileName, buf, cellsCap) }
 }

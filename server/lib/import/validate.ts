@@ -15,8 +15,11 @@ export function sortPoints(points: PointDto[]): PointDto[] {
   return points.map(p => ({ p, x: canonicalDecimal(p.x) })).sort((a, b) => cmpDecimal(a.x, b.x)).map(e => e.p)
 }
 
-/** Every rule of the import, on the stored cells plus the person's fixes. Pure; run at preview and again at create. */
-export function validateMapping(sheet: StoredSheet, m: ImportMapping): Validation {
+/**
+ * Every rule of the import, on the stored cells plus the person's fixes, one row at a time: `checkRow` for each row under
+ * the header, then `finish`. Pure; run at preview and again at create (validateMapping, in a worker thread).
+ */
+function createValidator(sheet: StoredSheet, m: ImportMapping) {
   const findings: ImportFinding[] = []
   const flagged = new Set<number>()
   const formulas = new Set(sheet.formulas)
@@ -41,10 +44,10 @@ export function validateMapping(sheet: StoredSheet, m: ImportMapping): Validatio
   let unsortedReported = false
   let dataRows = 0
 
-  for (let r = m.headerRow + 1; r < sheet.rows.length; r++) {
+  const checkRow = (r: number) => {
     const axisCell = cellAt(r, m.axisColumn)
     const valueCells = m.columns.map(c => cellAt(r, c.index))
-    if (axisCell.text === null && valueCells.every(v => v.text === null)) continue // blank row
+    if (axisCell.text === null && valueCells.every(v => v.text === null)) return // blank row
     dataRows++
     let x: string | null = null
     if (axisCell.formula) add('error', 'formula', r, m.axisColumn, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.')
@@ -80,11 +83,21 @@ export function validateMapping(sheet: StoredSheet, m: ImportMapping): Validatio
       if (x !== null && (!rule || rule.severity === 'warning')) tables[i]!.points.push({ x, y })
     })
   }
-  if (dataRows === 0) add('error', 'no-rows', null, null, 'there are no rows under the header row')
-  for (const t of tables) {
-    if (dataRows > 0 && t.points.length === 0) add('error', 'no-points', null, t.column, `"${t.name}" has no usable values`)
-    else if (t.points.length === 1) add('warning', 'one-point', null, t.column, `"${t.name}" has a single point; interpolation needs at least two`)
-    if (unsortedReported) t.points = sortPoints(t.points)
+  const finish = (): Validation => {
+    if (dataRows === 0) add('error', 'no-rows', null, null, 'there are no rows under the header row')
+    for (const t of tables) {
+      if (dataRows > 0 && t.points.length === 0) add('error', 'no-points', null, t.column, `"${t.name}" has no usable values`)
+      else if (t.points.length === 1) add('warning', 'one-point', null, t.column, `"${t.name}" has a single point; interpolation needs at least two`)
+      if (unsortedReported) t.points = sortPoints(t.points)
+    }
+    return { findings, tables, flaggedRows: [...flagged].sort((a, b) => a - b) }
   }
-  return { findings, tables, flaggedRows: [...flagged].sort((a, b) => a - b) }
+  return { firstRow: m.headerRow + 1, endRow: sheet.rows.length, checkRow, finish }
+}
+
+/** Every rule of the import at once (tests, benchmarks). */
+export function validateMapping(sheet: StoredSheet, m: ImportMapping): Validation {
+  const v = createValidator(sheet, m)
+  for (let r = v.firstRow; r < v.endRow; r++) v.checkRow(r)
+  return v.finish()
 }

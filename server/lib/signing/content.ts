@@ -1,16 +1,22 @@
 import { createHash } from 'node:crypto'
 import canonicalize from 'canonicalize'
 
-// The object an export signs. Every visible data cell of the workbook is derived from it
-// (workbook-model.ts), and it can be rebuilt from those cells (workbook-read.ts).
-export const SIGNED_FORMAT = 'knotwork-signed-table/1'
+// The object an export signs, in two formats. Every visible cell of the workbook is derived from it; verify rebuilds the
+// cells from the signed object and compares them one by one.
+// - knotwork-signed-table/1 (until issue 11): sheets "Filled values", "Given points", "Method and checks" (one row per
+//   leaf of the object, with its path) and "Signature". Still verified exactly as written (workbook-model.ts, frozen).
+// - knotwork-signed-table/2: the same object with fill.fittedOn (the points the fill was fitted on); the sheets read in
+//   words and the table's unit (workbook-v2.ts), and the Signature sheet also carries the audit-trail head signed on
+//   its own (anchor.ts).
+export const SIGNED_FORMAT_V1 = 'knotwork-signed-table/1'
+export const SIGNED_FORMAT = 'knotwork-signed-table/2'
 
 export type Json = string | number | boolean | null | Json[] | { [key: string]: Json }
 export interface Person { name: string; email: string }
 /** [x, y] as canonical decimal strings (shared/decimal-text.ts canonicalDecimal), sorted by x. */
 export type Pair = [string, string]
 
-export interface SignedFill {
+export interface SignedFillV1 {
   /** the engine's fully resolved spec: method, options, transform, grid, precision, ... */
   spec: Json
   rationale: string
@@ -23,14 +29,17 @@ export interface SignedFill {
   values: Pair[]
 }
 
-export interface SignedContent {
-  format: typeof SIGNED_FORMAT
+export interface SignedFill extends SignedFillV1 {
+  /** The given points the fill was fitted on: the version's content hash then, and its lock version right after. */
+  fittedOn: { contentHash: string | null; lockVersion: number | null }
+}
+
+interface ContentCommon {
   organisation: { slug: string; name: string }
   table: { id: string; name: string; kind: string; axis: string; axisUnit: string; valueUnit: string }
   version: { id: string; number: number; status: string; contentHash: string; notes: string }
   /** the given points, per unit */
   points: Pair[]
-  fill: SignedFill | null
   madeBy: Person | null
   submittedBy: Person | null
   submittedAt: string | null
@@ -39,15 +48,20 @@ export interface SignedContent {
   signedAt: string
   keyId: string
 }
+export interface SignedContentV1 extends ContentCommon { format: typeof SIGNED_FORMAT_V1; fill: SignedFillV1 | null }
+export interface SignedContentV2 extends ContentCommon { format: typeof SIGNED_FORMAT; fill: SignedFill | null }
+/** What new exports and the read API sign. */
+export type SignedContent = SignedContentV2
+export type AnySignedContent = SignedContentV1 | SignedContentV2
 
-/** RFC 8785 (JSON Canonicalization Scheme) text of the content, as UTF-8 bytes: what Ed25519 signs. */
-export function canonicalBytes(content: SignedContent): Buffer {
-  const text = canonicalize(content)
-  if (text === undefined) throw new TypeError('the content cannot be canonicalised')
+/** RFC 8785 (JSON Canonicalization Scheme) text of a JSON value, as UTF-8 bytes: what Ed25519 signs. */
+export function canonicalBytes(value: object): Buffer {
+  const text = canonicalize(value)
+  if (text === undefined) throw new TypeError('the value cannot be canonicalised')
   return Buffer.from(text, 'utf8')
 }
 
 /** SHA-256 (FIPS 180-4) of the canonical bytes, lower-case hex. */
-export function contentSha256(content: SignedContent): string {
-  return createHash('sha256').update(canonicalBytes(content)).digest('hex')
+export function contentSha256(value: object): string {
+  return createHash('sha256').update(canonicalBytes(value)).digest('hex')
 }

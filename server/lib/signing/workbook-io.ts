@@ -1,27 +1,42 @@
 import ExcelJS from 'exceljs'
-import { canonicalBytes, contentSha256, type Pair, type SignedContent } from './content'
+import { canonicalBytes, contentSha256, type Pair, type SignedContentV1, type SignedContentV2 } from './content'
+import type { SignedHead } from './anchor'
 import { unescapeText } from './escape'
 import { fromRows, type JsonRow, type RowType } from './json-rows'
-import { ABOUT_FIRST_DATA_ROW, SHEET, workbookModel, type CellValue, type SignatureBlock } from './workbook-model'
+import { ABOUT_FIRST_DATA_ROW, SHEET, type CellValue, type SheetModel, type SignatureBlock } from './workbook-model'
+import { workbookModelV2 } from './workbook-v2'
 
 export type SheetCells = Map<string, CellValue[][]>
 export const READ_CAPS = { sheets: 12, rowsPerSheet: 200_000, columns: 64 } as const
 
-/** Writes the signed workbook: the four sheets of workbookModel, nothing else in any cell. */
-export async function writeSignedWorkbook(content: SignedContent, block: Omit<SignatureBlock, 'sha256'>): Promise<Buffer> {
-  const canonical = canonicalBytes(content).toString('utf8')
+/** Writes sheets exactly as modelled (nothing else in any cell); headings bold, the value sheets' first row frozen. */
+export async function writeWorkbook(sheets: SheetModel[], at: string): Promise<Buffer> {
   const wb = new ExcelJS.Workbook()
   wb.creator = 'Knotwork'
-  wb.created = new Date(content.signedAt)
-  wb.modified = new Date(content.signedAt)
-  for (const sheet of workbookModel(content, { ...block, sha256: contentSha256(content) }, canonical)) {
+  wb.created = new Date(at)
+  wb.modified = new Date(at)
+  for (const sheet of sheets) {
     const ws = wb.addWorksheet(sheet.name)
     sheet.widths.forEach((w, i) => { ws.getColumn(i + 1).width = w })
     sheet.rows.forEach((row, r) => row.forEach((value, c) => { if (value !== null) ws.getCell(r + 1, c + 1).value = value }))
-    ws.getRow(sheet.name === SHEET.about ? ABOUT_FIRST_DATA_ROW : 1).font = { bold: true }
-    if (sheet.name === SHEET.filled || sheet.name === SHEET.given) ws.views = [{ state: 'frozen', ySplit: 1 }]
+    const pairs = sheet.name.startsWith(SHEET.filled) || sheet.name.startsWith(SHEET.given)
+    if (pairs) {
+      ws.getRow(1).font = { bold: true }
+      ws.views = [{ state: 'frozen', ySplit: 1 }]
+    } else {
+      // a row with one text cell is a title or a section heading
+      sheet.rows.forEach((row, r) => { if (row.length === 1 && typeof row[0] === 'string') ws.getRow(r + 1).font = { bold: true } })
+      if (sheet.name === SHEET.about) ws.getRow(ABOUT_FIRST_DATA_ROW).font = { bold: true }
+    }
+    if (!pairs) ws.getColumn(2).alignment = { wrapText: true, vertical: 'top' }
   }
   return Buffer.from(await wb.xlsx.writeBuffer())
+}
+
+/** Writes a signed workbook of the current format: readable sheets, then the signature and the audit-trail head. */
+export async function writeSignedWorkbook(content: SignedContentV2, block: Omit<SignatureBlock, 'sha256'>, anchor: SignedHead | null): Promise<Buffer> {
+  const canonical = canonicalBytes(content).toString('utf8')
+  return writeWorkbook(workbookModelV2(content, { ...block, sha256: contentSha256(content) }, canonical, anchor), content.signedAt)
 }
 
 /** A cell as the comparison sees it; anything but text, number or true/false becomes a marker text that never matches. */
@@ -70,8 +85,8 @@ function pairsOf(rows: CellValue[][] | undefined, sheet: string): Pair[] {
   })
 }
 
-/** Rebuilds the signed content from the visible sheets (exact decimal columns and content paths). */
-export function contentFromSheets(sheets: SheetCells): SignedContent {
+/** Rebuilds signed content of the first format from its visible sheets (exact decimal columns and content paths). */
+export function contentFromSheets(sheets: SheetCells): SignedContentV1 {
   const about = sheets.get(SHEET.about)
   if (!about) throw new Error(`the sheet "${SHEET.about}" is missing`)
   const rows: JsonRow[] = about.slice(ABOUT_FIRST_DATA_ROW).map((row) => {
@@ -81,7 +96,7 @@ export function contentFromSheets(sheets: SheetCells): SignedContent {
     const raw = row[1] ?? null
     return { path, type, value: typeof raw === 'string' ? unescapeText(raw) : raw }
   })
-  const base = fromRows(rows) as unknown as SignedContent
+  const base = fromRows(rows) as unknown as SignedContentV1
   const fill = base.fill ? { ...base.fill, values: pairsOf(sheets.get(SHEET.filled), SHEET.filled) } : null
   return { ...base, points: pairsOf(sheets.get(SHEET.given), SHEET.given), fill }
 }

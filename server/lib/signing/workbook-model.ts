@@ -1,9 +1,10 @@
-import { SIGNED_FORMAT, type Json, type Pair, type SignedContent } from './content'
+import { SIGNED_FORMAT_V1, type Json, type Pair, type SignedContentV1 as SignedContent } from './content'
 import { escapeText } from './escape'
 import { toRows, type JsonRow } from './json-rows'
 
-// The cells of a signed workbook, derived from the signed content alone (plus the signature
-// block). Writing uses this model; verifying compares an upload against it cell by cell.
+// The cells of a signed workbook of the first format (knotwork-signed-table/1), derived from the signed content alone
+// (plus the signature block). FROZEN: files of this format are held by auditors and verify against exactly these cells
+// (tests/unit/export/old-exports.test.ts). New exports use workbook-v2.ts; change nothing here.
 export type CellValue = string | number | boolean | null
 export interface SheetModel { name: string; rows: CellValue[][]; widths: number[] }
 export interface SignatureBlock { signature: string; keyId: string; x: string; sha256: string }
@@ -55,7 +56,7 @@ export function signatureRows(content: SignedContent, block: SignatureBlock, can
   const slug = content.organisation.slug
   return [
     ['Signature of this workbook', null],
-    ['Format', SIGNED_FORMAT],
+    ['Format', SIGNED_FORMAT_V1],
     ['Algorithm', 'Ed25519 (RFC 8032), pure EdDSA over the canonical bytes (no pre-hash)'],
     ['Canonicalisation', `RFC 8785 JSON Canonicalization Scheme, UTF-8, of the content object. It is rebuilt from the sheets "${SHEET.filled}", "${SHEET.given}" and "${SHEET.about}" (exact decimal and content-path columns), and a copy is stored below.`],
     ['Content SHA-256', block.sha256],

@@ -6,8 +6,8 @@ const draft = (ctx: MatrixContext) => `/api/orgs/${ctx.org}/tables/${ctx.ids.ben
 
 export const fillsRoutes: Record<string, RouteExpectation> = {
   'GET /api/orgs/[org]/fill-methods': { expect: EVERY_MEMBER },
-  'POST /api/orgs/[org]/tables/[table]/versions/[version]/compare': { path: ctx => `${draft(ctx)}/compare`, body: {}, expect: RUNNERS },
-  'POST /api/orgs/[org]/tables/[table]/versions/[version]/fill': { path: ctx => `${draft(ctx)}/fill`, body: {}, expect: RUNNERS },
+  'POST /api/orgs/[org]/tables/[table]/versions/[version]/compare': { csrf: 'json', path: ctx => `${draft(ctx)}/compare`, body: {}, expect: RUNNERS },
+  'POST /api/orgs/[org]/tables/[table]/versions/[version]/fill': { csrf: 'json', path: ctx => `${draft(ctx)}/fill`, body: {}, expect: RUNNERS },
   'GET /api/orgs/[org]/tables/[table]/versions/[version]/fill': { path: ctx => `${draft(ctx)}/fill`, expect: EVERY_MEMBER },
   // no run with this id: a runner gets past the checks and hears 404 (the run is unknown), others 403
   'GET /api/orgs/[org]/compare-progress/[run]': { path: ({ org }) => `/api/orgs/${org}/compare-progress/no-such-run`, expect: { ...RUNNERS, actuary: 404, analyst: 404 } },

@@ -5,6 +5,8 @@ import { membersRoutes } from './members'
 import { billingRoutes } from './billing'
 import { reviewRoutes } from './review'
 import { readTokenRoutes } from './read-tokens'
+import { trustRoutes } from './trust'
+import { runsRoutes } from './runs'
 import type { RouteExpectation } from './types'
 
 // Each feature adds its own file and spreads it here.
@@ -16,4 +18,6 @@ export const ROUTES: Record<string, RouteExpectation> = {
   ...reviewRoutes,
   ...fillsRoutes,
   ...readTokenRoutes,
+  ...trustRoutes,
+  ...runsRoutes,
 }

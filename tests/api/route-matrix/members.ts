@@ -8,14 +8,14 @@ const ADMIN_MISSING = { ...ADMIN, admin: 404 }
 
 export const membersRoutes: Record<string, RouteExpectation> = {
   'GET /api/orgs/[org]/seats': { expect: ADMIN },
-  'PATCH /api/orgs/[org]/members/[user]': { path: ({ org }) => `/api/orgs/${org}/members/${NOBODY}`, expect: ADMIN },
-  'DELETE /api/orgs/[org]/members/[user]': { path: ({ org }) => `/api/orgs/${org}/members/${NOBODY}`, expect: ADMIN_MISSING },
+  'PATCH /api/orgs/[org]/members/[user]': { csrf: 'json', path: ({ org }) => `/api/orgs/${org}/members/${NOBODY}`, expect: ADMIN },
+  'DELETE /api/orgs/[org]/members/[user]': { csrf: 'json', path: ({ org }) => `/api/orgs/${org}/members/${NOBODY}`, expect: ADMIN_MISSING },
   'GET /api/orgs/[org]/invitations': { expect: ADMIN },
-  'POST /api/orgs/[org]/invitations': { expect: ADMIN },
-  'DELETE /api/orgs/[org]/invitations/[invitation]': { path: ({ org }) => `/api/orgs/${org}/invitations/${NOBODY}`, expect: ADMIN_MISSING },
-  'POST /api/orgs/[org]/invitations/[invitation]/resend': { path: ({ org }) => `/api/orgs/${org}/invitations/${NOBODY}/resend`, expect: ADMIN_MISSING },
+  'POST /api/orgs/[org]/invitations': { csrf: 'json', expect: ADMIN },
+  'DELETE /api/orgs/[org]/invitations/[invitation]': { csrf: 'json', path: ({ org }) => `/api/orgs/${org}/invitations/${NOBODY}`, expect: ADMIN_MISSING },
+  'POST /api/orgs/[org]/invitations/[invitation]/resend': { csrf: 'json', path: ({ org }) => `/api/orgs/${org}/invitations/${NOBODY}/resend`, expect: ADMIN_MISSING },
   'GET /api/invitations/[token]': { path: () => `/api/invitations/${BOGUS_TOKEN}`, expect: ALL(404) },
-  'POST /api/invitations/[token]/accept': { path: () => `/api/invitations/${BOGUS_TOKEN}/accept`, expect: ALL(404) },
-  'POST /api/auth/password-reset': { expect: { ...PUBLIC } },
-  'POST /api/auth/password-reset/confirm': { expect: { ...PUBLIC } },
+  'POST /api/invitations/[token]/accept': { csrf: 'json', path: () => `/api/invitations/${BOGUS_TOKEN}/accept`, expect: ALL(404) },
+  'POST /api/auth/password-reset': { csrf: 'json', expect: { ...PUBLIC } },
+  'POST /api/auth/password-reset/confirm': { csrf: 'json', expect: { ...PUBLIC } },
 }

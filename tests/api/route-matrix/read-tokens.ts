@@ -7,8 +7,8 @@ const ADMIN = ROLE_ONLY(['admin'])
 
 export const readTokenRoutes: Record<string, RouteExpectation> = {
   'GET /api/orgs/[org]/read-tokens': { expect: ADMIN },
-  'POST /api/orgs/[org]/read-tokens': { expect: ADMIN },
-  'DELETE /api/orgs/[org]/read-tokens/[token]': { path: ({ org }) => `/api/orgs/${org}/read-tokens/${NOBODY}`, expect: { ...ADMIN, admin: 404 } },
+  'POST /api/orgs/[org]/read-tokens': { csrf: 'json', expect: ADMIN },
+  'DELETE /api/orgs/[org]/read-tokens/[token]': { csrf: 'json', path: ({ org }) => `/api/orgs/${org}/read-tokens/${NOBODY}`, expect: { ...ADMIN, admin: 404 } },
   'GET /api/v1/tables': { expect: ALL(401) },
   'GET /api/v1/tables/[table]': { path: () => `/api/v1/tables/${NOBODY}`, expect: ALL(401) },
 }

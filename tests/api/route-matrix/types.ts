@@ -2,12 +2,21 @@
 // authorisation (any status but 401, 403 and 404): validation errors on an empty body count as pass.
 export type Expect = number | 'pass'
 export type Caller = 'anonymous' | 'admin' | 'actuary' | 'analyst' | 'auditor' | 'otherOrg'
+/**
+ * How a change is protected from cross-site forgery (server/middleware/01.same-origin.ts; tests/api/csrf.test.ts).
+ * json: only from the app's own origin, and a body must be JSON (a form body answers 403 json-required).
+ * multipart: only from the app's own origin; the body is a multipart upload.
+ * exempt: proves itself another way (Stripe's signature); any origin may call it.
+ */
+export type CsrfRule = 'json' | 'multipart' | 'exempt'
 
 export interface RouteExpectation {
   /** Concrete path to call; [org] becomes the Larkspur slug (or Fenwick & Rowe's for otherOrg callers of non-org routes). */
   path?: (ctx: MatrixContext) => string | Promise<string>
   body?: unknown
   expect: Record<Caller, Expect>
+  /** required for every POST, PUT, PATCH and DELETE route */
+  csrf?: CsrfRule
 }
 
 export interface MatrixContext {

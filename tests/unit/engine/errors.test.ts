@@ -46,7 +46,7 @@ describe('engine errors', () => {
     const lin = fill({ ...base, grid: { from: '10', to: '55', step: '5' }, extrapolation: 'linear' })
     expect(lin.points[0]).toEqual({ x: '10', y: '0' }) // 0.001 - 10 * 0.0001
     expect(lin.points.at(-1)).toEqual({ x: '55', y: '0.005333333333333333333333333333333333333333' }) // 0.004 + 10 * 0.002/15
-    expect(lin.diagnostics.notes.join(' ')).toContain('4 point(s) lie outside the knots [20, 45] (2 below, 2 above)')
+    expect(lin.diagnostics.notes.join(' ')).toContain('4 point(s) lie outside the given points, 20 to 45 (2 below, 2 above); there the fill is the end piece extended as a straight line')
   })
   it('linear extrapolation of a cubic continues the end piece\'s slope (natural spline: s\'\'(x_n) = 0, so the slope matches to second order)', () => {
     const kn = knots([0, 1, 2, 4], ['1', '3', '2', '5'])

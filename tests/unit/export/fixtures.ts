@@ -1,5 +1,5 @@
 import fc from 'fast-check'
-import { generateSigningKey, keyIdOf, signBytes, canonicalBytes, SIGNED_FORMAT, type Pair, type SignedContent } from '~~/server/lib/signing'
+import { generateSigningKey, keyIdOf, signBytes, canonicalBytes, signHead, HEAD_FORMAT, SIGNED_FORMAT, type Pair, type SignedContent, type SignedHead } from '~~/server/lib/signing'
 import { createPrivateKey } from 'node:crypto'
 
 /** One organisation key for a test run. */
@@ -33,14 +33,15 @@ export const arbitraryContent = (kid: string) => fc.record({
   hasFill: fc.boolean(),
   precision: fc.integer({ min: 10, max: 60 }),
   options: fc.dictionary(fc.constantFrom('bc', '0', 'slope/left', 'a~b', 'k[1]'), fc.oneof(risky, fc.integer(), fc.boolean(), fc.constant(null))),
-}).map(({ points, values, name, rationale, person, hasFill, precision, options }): SignedContent => ({
+  units: fc.constantFrom({ kind: 'mortality', valueUnit: 'per-mille', axis: 'age' }, { kind: 'lapse', valueUnit: 'percent', axis: 'policy-year' }, { kind: 'spot-rate', valueUnit: 'basis-points', axis: 'term' }, { kind: 'salary', valueUnit: 'per-unit', axis: 'age' }),
+}).map(({ points, values, name, rationale, person, hasFill, precision, options, units: { kind, valueUnit, axis } }): SignedContent => ({
   format: SIGNED_FORMAT,
   organisation: { slug: 'test-org', name: 'Test Org' },
-  table: { id: '00000000-0000-4000-8000-000000000001', name, kind: 'mortality', axis: 'age', axisUnit: 'years', valueUnit: 'per-unit' },
+  table: { id: '00000000-0000-4000-8000-000000000001', name, kind, axis, axisUnit: 'years', valueUnit },
   version: { id: '00000000-0000-4000-8000-000000000002', number: 3, status: 'approved', contentHash: 'ab'.repeat(32), notes: '' },
   points,
   fill: hasFill
-    ? { spec: { method: 'cubic-natural', options, precision, grid: { from: '0', to: '120', step: '1' }, at: null, money: { ages: [65], interest: '0.03' } }, rationale, checks: { knotsReproduced: true, notes: [], curvature: { count: 2, at: [{ from: '60', to: '65' }] } }, money: { figures: [{ key: 'e65', value: '17.5', label: 'e_65' }] }, filledBy: person, filledAt: '2026-10-01T10:00:00.000Z', values }
+    ? { spec: { method: 'cubic-natural', options, precision, grid: { from: '0', to: '120', step: '1' }, at: null, money: { ages: [65], interest: '0.03' } }, rationale, checks: { knotsReproduced: true, notes: [], curvature: { count: 2, at: [{ from: '60', to: '65' }] } }, money: { figures: [{ key: 'e65', value: '17.5', label: 'e_65' }] }, filledBy: person, filledAt: '2026-10-01T10:00:00.000Z', values, fittedOn: { contentHash: 'ab'.repeat(32), lockVersion: 4 } }
     : null,
   madeBy: person,
   submittedBy: person,
@@ -53,4 +54,9 @@ export const arbitraryContent = (kid: string) => fc.record({
 
 export function signatureOf(content: SignedContent, key: ReturnType<typeof testKey>) {
   return { signature: signBytes(canonicalBytes(content), key.privateKey), keyId: key.kid, x: key.x }
+}
+
+/** A signed audit-trail head of the test organisation. */
+export function headOf(key: ReturnType<typeof testKey>, number = 41): SignedHead {
+  return signHead({ format: HEAD_FORMAT, organisation: { slug: 'test-org', name: 'Test Org' }, head: { number, eventId: '9041', hash: 'cd'.repeat(32), at: '2026-10-03T07:59:00.000Z' }, statedAt: '2026-10-03T08:00:00.000Z', reason: 'export', keyId: key.kid }, key.privateKey)
 }

@@ -6,7 +6,7 @@ import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { writeSignedWorkbook } from '~~/server/lib/signing'
 import { extractForOpenssl } from '~~/scripts/verify-export'
-import { arbitraryContent, signatureOf, testKey } from './fixtures'
+import { arbitraryContent, headOf, signatureOf, testKey } from './fixtures'
 
 // Outside reference: the OpenSSL command-line tool (pkeyutl with Ed25519, dgst -sha256) checks what the
 // offline script extracts from a workbook, exactly as docs/verify-offline.md tells an auditor to.
@@ -14,8 +14,8 @@ describe('signed export checked by openssl', () => {
   const key = testKey()
   const content = fc.sample(arbitraryContent(key.kid), { numRuns: 1, seed: 42 })[0]!
 
-  it('openssl pkeyutl verifies the signature over the content rebuilt from the sheets, and refuses a changed byte', async () => {
-    const file = await writeSignedWorkbook(content, signatureOf(content, key))
+  it('openssl pkeyutl verifies the signature over the content stored in the workbook, and refuses a changed byte', async () => {
+    const file = await writeSignedWorkbook(content, signatureOf(content, key), headOf(key))
     const parts = await extractForOpenssl(file, key.x)
     const dir = mkdtempSync(path.join(tmpdir(), 'kw-openssl-'))
     const at = (f: string) => path.join(dir, f)

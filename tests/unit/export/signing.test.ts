@@ -2,113 +2,147 @@ import { verify as nodeVerify, createPublicKey } from 'node:crypto'
 import ExcelJS from 'exceljs'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { canonicalBytes, contentFromSheets, readWorkbookCells, signatureSheetField, verifyWorkbookCells, writeSignedWorkbook, SHEET } from '~~/server/lib/signing'
+import {
+  SIGNED_FORMAT_V1, SHEET_V2, canonicalBytes, contentSha256, readWorkbookCells, signatureSheetField, verifyWorkbookCells, workbookModel, writeSignedWorkbook, writeWorkbook,
+  type SignedContentV1,
+} from '~~/server/lib/signing'
 import { canonicalJson } from '~~/server/lib/canonical-json'
-import { arbitraryContent, signatureOf, testKey } from './fixtures'
+import { arbitraryContent, headOf, signatureOf, testKey } from './fixtures'
 
 const key = testKey()
 const lookup = (kid: string) => (kid === key.kid ? key.x : null)
 const RUNS = { numRuns: 25 }
+const SHEET = SHEET_V2
 
-describe('signed export: property tests over random small tables', () => {
-  it('export then verify is genuine, and the content rebuilt from the visible sheets is exactly the signed content', async () => {
+async function edited(file: Buffer, change: (wb: ExcelJS.Workbook) => void) {
+  const wb = new ExcelJS.Workbook()
+  await wb.xlsx.load(file as unknown as ArrayBuffer)
+  change(wb)
+  return readWorkbookCells(Buffer.from(await wb.xlsx.writeBuffer()))
+}
+
+describe('signed export (format 2): property tests over random small tables', () => {
+  it('export then verify is genuine, and the audit-trail head comes back with its own signature', async () => {
     await fc.assert(fc.asyncProperty(arbitraryContent(key.kid), async (content) => {
-      const file = await writeSignedWorkbook(content, signatureOf(content, key))
-      const sheets = await readWorkbookCells(file)
-      expect(canonicalBytes(contentFromSheets(sheets)).equals(canonicalBytes(content))).toBe(true)
-      expect(verifyWorkbookCells(sheets, lookup).kind).toBe('genuine')
+      const head = headOf(key)
+      const file = await writeSignedWorkbook(content, signatureOf(content, key), head)
+      const verdict = verifyWorkbookCells(await readWorkbookCells(file), lookup)
+      expect(verdict.kind).toBe('genuine')
+      if (verdict.kind !== 'genuine') return
+      expect(canonicalBytes(verdict.content).equals(canonicalBytes(content))).toBe(true)
+      expect(verdict.anchor).toEqual(head)
     }), RUNS)
   })
 
-  it('changing any one value cell makes verify fail and name that cell', async () => {
+  it('changing any one value cell (the number or the every-digit text) makes verify fail and name that cell', async () => {
     await fc.assert(fc.asyncProperty(arbitraryContent(key.kid), fc.nat(), fc.boolean(), async (content, pick, exactColumn) => {
-      const file = await writeSignedWorkbook(content, signatureOf(content, key))
-      const wb = new ExcelJS.Workbook()
-      await wb.xlsx.load(file as unknown as ArrayBuffer)
+      const file = await writeSignedWorkbook(content, signatureOf(content, key), headOf(key))
       const sheetName = content.fill?.values.length ? SHEET.filled : SHEET.given
       const pairs = content.fill?.values.length ? content.fill.values : content.points
       const row = 2 + (pick % pairs.length)
-      const col = exactColumn ? 'D' : 'B'
-      const cell = wb.getWorksheet(sheetName)!.getCell(`${col}${row}`)
-      cell.value = exactColumn ? `${String(cell.value)}1` : Number(cell.value) + 1
-      const altered = Buffer.from(await wb.xlsx.writeBuffer())
-      const verdict = verifyWorkbookCells(await readWorkbookCells(altered), lookup)
+      const col = exactColumn ? 'C' : 'B'
+      const verdict = verifyWorkbookCells(await edited(file, (wb) => {
+        const cell = wb.getWorksheet(sheetName)!.getCell(`${col}${row}`)
+        cell.value = exactColumn ? `${String(cell.value)}1` : Number(cell.value) + 1
+      }), lookup)
       expect(verdict.kind).toBe('altered')
-      if (verdict.kind !== 'altered') return
-      expect(verdict.differences.map(d => d.cell)).toEqual([`${sheetName}!${col}${row}`])
+      if (verdict.kind === 'altered') expect(verdict.differences.map(d => d.cell)).toEqual([`${sheetName}!${col}${row}`])
     }), RUNS)
   })
 
   it('reading and re-saving the workbook through exceljs keeps it verifiable (the signature does not cover zip bytes)', async () => {
     await fc.assert(fc.asyncProperty(arbitraryContent(key.kid), async (content) => {
-      const file = await writeSignedWorkbook(content, signatureOf(content, key))
-      const wb = new ExcelJS.Workbook()
-      await wb.xlsx.load(file as unknown as ArrayBuffer)
-      wb.modified = new Date('2030-01-01T00:00:00Z')
-      wb.getWorksheet(SHEET.filled)!.getColumn(1).width = 30
-      const resaved = Buffer.from(await wb.xlsx.writeBuffer())
-      expect(resaved.equals(file)).toBe(false)
-      expect(verifyWorkbookCells(await readWorkbookCells(resaved), lookup).kind).toBe('genuine')
+      const file = await writeSignedWorkbook(content, signatureOf(content, key), headOf(key))
+      const sheets = await edited(file, (wb) => {
+        wb.modified = new Date('2030-01-01T00:00:00Z')
+        wb.getWorksheet(SHEET.filled)!.getColumn(1).width = 30
+      })
+      expect(verifyWorkbookCells(sheets, lookup).kind).toBe('genuine')
+    }), { numRuns: 10 })
+  })
+
+  it('files of the first format written by its frozen model still verify, with the content rebuilt from their sheets', async () => {
+    await fc.assert(fc.asyncProperty(arbitraryContent(key.kid), async (c) => {
+      const { fill, ...rest } = c
+      const v1: SignedContentV1 = { ...rest, format: SIGNED_FORMAT_V1, fill: fill ? (({ fittedOn: _f, ...f }) => f)(fill) : null }
+      const sig = signatureOf(v1 as never, key)
+      const file = await writeWorkbook(workbookModel(v1, { ...sig, sha256: contentSha256(v1) }, canonicalBytes(v1).toString('utf8')), v1.signedAt)
+      const verdict = verifyWorkbookCells(await readWorkbookCells(file), lookup)
+      expect(verdict.kind === 'genuine' && verdict.content.format).toBe(SIGNED_FORMAT_V1)
     }), { numRuns: 10 })
   })
 })
 
-describe('signed export: fixed cases', () => {
-  const content = fc.sample(arbitraryContent(key.kid), { numRuns: 1, seed: 7 })[0]!
-  const withFill = { ...content, fill: content.fill ?? null }
+describe('signed export (format 2): fixed cases', () => {
+  const base = fc.sample(arbitraryContent(key.kid), { numRuns: 1, seed: 7 })[0]!
+  const content = {
+    ...base,
+    table: { ...base.table, kind: 'mortality', axis: 'age', valueUnit: 'per-mille' },
+    points: [['55', '0.0061'], ['60', '0.0094'], ['100', '0.35']] as [string, string][],
+    fill: { ...base.fill!, spec: { method: 'quadratic', options: { condition: 'right-zero-curvature' }, transform: 'log', extrapolation: 'error', precision: 40, grid: { from: '55', to: '100', step: '1' }, at: null }, values: [['55', '0.0061'], ['56', '0.00665'], ['100', '0.35']] as [string, string][], fittedOn: { contentHash: base.version.contentHash, lockVersion: 7 } },
+  }
+  const write = (c = content) => writeSignedWorkbook(c, signatureOf(c, key), headOf(key))
+
+  it('headings name the axis and the unit; values read in the table\u2019s unit with the per-unit value beside; options read in words', async () => {
+    const sheets = await readWorkbookCells(await write())
+    expect(sheets.get(SHEET.filled)!.slice(0, 3)).toEqual([
+      ['Age (years)', 'q_x (per mille)', 'q_x (per mille), every digit', 'q_x per unit, every digit'],
+      [55, 6.1, '6.1', '0.0061'],
+      [56, 6.65, '6.65', '0.00665'],
+    ])
+    const about = sheets.get(SHEET.about)!.map(r => r.join(' | '))
+    expect(about).toContain('Method | Quadratic spline')
+    expect(about).toContain('Extra condition | Straight last piece')
+    expect(about).toContain('Interpolated on | Logarithm')
+    expect(about.join('\n')).not.toMatch(/right-zero-curvature|\/fill\/spec/)
+    expect(about.find(r => r.startsWith('Fitted on'))).toMatch(/the given points of this version/)
+  })
 
   it('text that starts with = + - @ is written with a leading apostrophe, never as a formula', async () => {
-    const risky = { ...withFill, table: { ...withFill.table, name: '=HYPERLINK("http://x","y")' } }
-    const file = await writeSignedWorkbook(risky, signatureOf(risky, key))
+    const risky = { ...content, table: { ...content.table, name: '=HYPERLINK("http://x","y")' } }
+    const file = await write(risky)
     const wb = new ExcelJS.Workbook()
     await wb.xlsx.load(file as unknown as ArrayBuffer)
-    const ws = wb.getWorksheet(SHEET.about)!
     const cells: unknown[] = []
-    ws.eachRow(row => row.eachCell(c => cells.push(c.value)))
+    wb.getWorksheet(SHEET.about)!.eachRow(row => row.eachCell(c => cells.push(c.value)))
     expect(cells.some(v => typeof v === 'object' && v !== null && 'formula' in v)).toBe(false)
     expect(cells).toContain('\'=HYPERLINK("http://x","y")')
     expect(verifyWorkbookCells(await readWorkbookCells(file), lookup).kind).toBe('genuine')
   })
 
-  it('a key id that is not published gives "unknown key"', async () => {
-    const file = await writeSignedWorkbook(withFill, signatureOf(withFill, key))
-    expect(verifyWorkbookCells(await readWorkbookCells(file), () => null)).toEqual({ kind: 'unknown-key', keyId: key.kid })
-  })
-
-  // Found by CI: one organisation in 64 has a key id (base64url) that starts with "-". The formula guard writes it
-  // as "'-...", and the server looked the key up with the apostrophe, so its own exports read as "unknown key".
-  it('a key id that starts with "-" is stored with the formula guard and read back without it', async () => {
+  it('a key id that is not published gives "unknown key"; one that starts with "-" is read back without the formula guard', async () => {
+    expect(verifyWorkbookCells(await readWorkbookCells(await write()), () => null)).toEqual({ kind: 'unknown-key', keyId: key.kid })
     let dashed = testKey()
     while (!dashed.kid.startsWith('-')) dashed = testKey()
-    const content = { ...withFill, keyId: dashed.kid }
-    const file = await writeSignedWorkbook(content, signatureOf(content, dashed))
-    const sheets = await readWorkbookCells(file)
-    expect(sheets.get(SHEET.signature)!.find(r => r[0] === 'Key id')![1]).toBe(`'${dashed.kid}`)
+    const c = { ...content, keyId: dashed.kid }
+    const sheets = await readWorkbookCells(await writeSignedWorkbook(c, signatureOf(c, dashed), headOf(dashed)))
     expect(signatureSheetField(sheets, 'Key id')).toBe(dashed.kid)
     expect(verifyWorkbookCells(sheets, kid => (kid === dashed.kid ? dashed.x : null)).kind).toBe('genuine')
   })
 
-  it('a formula put into a value cell is reported as altered at that cell', async () => {
-    const file = await writeSignedWorkbook(withFill, signatureOf(withFill, key))
-    const wb = new ExcelJS.Workbook()
-    await wb.xlsx.load(file as unknown as ArrayBuffer)
-    wb.getWorksheet(SHEET.given)!.getCell('B2').value = { formula: '1+1', result: 2 }
-    const verdict = verifyWorkbookCells(await readWorkbookCells(Buffer.from(await wb.xlsx.writeBuffer())), lookup)
-    expect(verdict.kind === 'altered' && verdict.differences.map(d => d.cell)).toEqual([`${SHEET.given}!B2`])
+  it('a formula in a value cell, a changed stored content, or a changed audit-trail head is reported as altered', async () => {
+    const file = await write()
+    const formula = verifyWorkbookCells(await edited(file, (wb) => { wb.getWorksheet(SHEET.given)!.getCell('B2').value = { formula: '1+1', result: 2 } }), lookup)
+    expect(formula.kind === 'altered' && formula.differences.map(d => d.cell)).toEqual([`${SHEET.given}!B2`])
+    const rowOf = (wb: ExcelJS.Workbook, label: string) => { let at = 0; wb.getWorksheet('Signature')!.eachRow((r, n) => { if (String(r.getCell(1).value).startsWith(label)) at = n }); return at }
+    const stored = verifyWorkbookCells(await edited(file, (wb) => { const c = wb.getWorksheet('Signature')!.getCell(`B${rowOf(wb, 'Signed content, part 1')}`); c.value = String(c.value).replace('"number":3', '"number":4') }), lookup)
+    expect(stored.kind === 'altered' && stored.reason).toMatch(/stored content/)
+    const head = verifyWorkbookCells(await edited(file, (wb) => { const c = wb.getWorksheet('Signature')!.getCell(`B${rowOf(wb, 'Audit trail head statement, part 1')}`); c.value = String(c.value).replace('"number":41', '"number":40') }), lookup)
+    expect(head.kind === 'altered' && head.reason).toMatch(/audit-trail head/)
   })
 
   // Outside reference: RFC 8785's own implementation (the "canonicalize" package by the RFC's authors)
   // and our hand-written canonical-json.ts agree on the signed bytes.
   it('canonical bytes agree with server/lib/canonical-json.ts', () => {
-    expect(canonicalBytes(withFill).toString('utf8')).toBe(canonicalJson(withFill))
+    expect(canonicalBytes(content).toString('utf8')).toBe(canonicalJson(content))
   })
 
   // Outside reference: Node's own crypto.verify with only the public JWK, no Knotwork code on the verify side.
   it('the signature verifies with crypto.verify(null, data, publicKey, sig)', () => {
-    const { signature } = signatureOf(withFill, key)
+    const { signature } = signatureOf(content, key)
     const publicKey = createPublicKey({ key: { kty: 'OKP', crv: 'Ed25519', x: key.x }, format: 'jwk' })
-    expect(nodeVerify(null, canonicalBytes(withFill), publicKey, Buffer.from(signature, 'base64'))).toBe(true)
-    const tampered = Buffer.from(canonicalBytes(withFill))
+    expect(nodeVerify(null, canonicalBytes(content), publicKey, Buffer.from(signature, 'base64'))).toBe(true)
+    const tampered = Buffer.from(canonicalBytes(content))
     tampered[10] ^= 1
     expect(nodeVerify(null, tampered, publicKey, Buffer.from(signature, 'base64'))).toBe(false)
   })

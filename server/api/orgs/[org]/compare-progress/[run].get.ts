@@ -1,11 +1,11 @@
 import { runParamsSchema } from '#shared/schemas/route-params'
+import { findRun } from '~~/server/services/work/runs'
 
-// How far the caller's comparison with this run id is: methods filled so far, of how many. 404 once it is over a minute old
-// or was never started by this person.
+// How far the caller's comparison with this run id is: methods filled so far, of how many, and its state. Answered by any
+// node (the run is kept in PostgreSQL). 404 when this person started no run with this id, or it ended over an hour ago.
 export default defineEventHandler(async (event) => {
-  const { run } = readValidParams(event, runParamsSchema)
   const access = await requirePermission(event, 'fills:run')
-  const progress = getProgress(access.user.id, run)
-  if (!progress) throw apiError(404, 'not-found', 'No comparison with this run id is in progress.')
-  return { done: progress.done, total: progress.total }
+  const { run } = readValidParams(event, runParamsSchema)
+  const { dto } = await findRun(access, run)
+  return { done: dto.done, total: dto.total, status: dto.status }
 })

@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'exports:download')
   try {
     const { fileName, data } = await readUpload(event, MAX_BYTES)
-    return await verifyUpload(event, access, fileName, data)
+    return await verifyUpload(event, access, fileName, data, requestSignal(event))
   } catch (error) {
     if (error instanceof ImportRefused) throw apiError(error.statusCode, 'import-refused', error.message)
     throw error

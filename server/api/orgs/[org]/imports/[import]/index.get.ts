@@ -8,5 +8,5 @@ export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'tables:edit')
   const { import: id } = readValidParams(event, importParamsSchema)
   const { sheet, headerRow } = readValidQuery(event, querySchema)
-  return describeImport(access, id, sheet, headerRow)
+  return describeImport(access, id, sheet, headerRow, requestSignal(event))
 })

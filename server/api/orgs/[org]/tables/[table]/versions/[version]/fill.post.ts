@@ -7,5 +7,5 @@ export default defineEventHandler(async (event) => {
   const access = await requirePermission(event, 'fills:run')
   const { table, version } = readValidParams(event, versionParamsSchema)
   const input = await readValidBody(event, saveFillSchema)
-  return saveFill(event, access, table, version, input)
+  return saveFill(event, access, table, version, input, requestSignal(event))
 })

@@ -1,0 +1,75 @@
+import { REVIEW_CAUTION, METHODS, TRANSFORM_LISTING } from '../engine/index'
+import type { CompareResult } from '../engine/types'
+import { fromPerUnit } from '#shared/decimal-text'
+import { specRows, type SpecLike } from '#shared/fill-words'
+import { checkRows, verdictOf } from '#shared/check-words'
+import { VALUE_NAMES, axisHeading, valueHeading, type Axis, type AxisUnit, type TableKind, type ValueUnit } from '#shared/tables'
+import { csvText, type CsvCell } from './csv'
+import { escaped, readableSheets, type ReadableRecord } from './signing/readable'
+import type { CellValue, SheetModel } from './signing/workbook-model'
+
+// Unsigned working files: a version's chosen fill, and a comparison on the fill bench, as CSV and .xlsx. Every file says
+// in its first line (and its sheet names) that it is not signed off; values keep every digit, in the table's unit.
+export interface TableUnits { kind: TableKind, unit: ValueUnit, axis: Axis, axisUnit: AxisUnit }
+export const NOT_SIGNED = 'not signed off'
+const CAUTION = `Caution. ${REVIEW_CAUTION}`
+export const unitsOfRecord = (r: ReadableRecord): TableUnits => ({ kind: r.table.kind as TableKind, unit: r.table.valueUnit as ValueUnit, axis: r.table.axis as Axis, axisUnit: r.table.axisUnit as AxisUnit })
+
+/** The fill's values (or the given points when there is no fill) with every digit, given points marked. */
+export function fillCsv(r: ReadableRecord, banner: string): string {
+  const u = unitsOfRecord(r)
+  const given = new Set(r.points.map(p => p[0]))
+  const perUnit = u.unit !== 'per-unit'
+  const header = [axisHeading(u.axis, u.axisUnit), `${valueHeading(u.kind, u.unit)}, every digit`, ...(perUnit ? [`${VALUE_NAMES[u.kind]} per unit, every digit`] : []), 'Given point']
+  const pairs = r.fill?.values ?? r.points
+  const rows = pairs.map(([x, y]): CsvCell[] => [x, fromPerUnit(y, u.unit), ...(perUnit ? [y] : []), given.has(x) ? 'given' : null])
+  return csvText([[banner], [CAUTION], [], header, ...rows])
+}
+
+/** The readable sheets of the version (as the signed workbook has them), renamed and headed "not signed off". */
+export function fillSheets(r: ReadableRecord, banner: string): SheetModel[] {
+  return readableSheets(r, [banner], []).map(s => ({ ...s, name: `${s.name}, ${NOT_SIGNED}`.slice(0, 31) }))
+}
+
+interface Compared { labels: string[], xs: string[], columns: string[][], knots: Set<string> }
+function compared(result: CompareResult, knots: { x: string }[], unit: ValueUnit): Compared {
+  const done = result.entries.filter(e => e.ok)
+  const xs = done[0]?.ok ? done[0].result.points.map(p => p.x) : []
+  return {
+    labels: done.map(e => e.label), xs, knots: new Set(knots.map(k => k.x)),
+    columns: done.map(e => (e.ok ? e.result.points.map(p => fromPerUnit(p.y, unit)) : [])),
+  }
+}
+
+/** A bench comparison: one column per method, every digit, in the table's unit. */
+export function compareCsv(result: CompareResult, knots: { x: string }[], u: TableUnits, banner: string, settings: string): string {
+  const c = compared(result, knots, u.unit)
+  const header = [axisHeading(u.axis, u.axisUnit), ...c.labels.map(l => `${l}: ${valueHeading(u.kind, u.unit)}`), 'Given point']
+  const rows = c.xs.map((x, k): CsvCell[] => [x, ...c.columns.map(col => col[k]!), c.knots.has(x) ? 'given' : null])
+  return csvText([[banner], [CAUTION], [settings], [], header, ...rows])
+}
+
+/** The comparison as sheets: numbers to calculate with, every digit as text, and each method's settings and checks. */
+export function compareSheets(result: CompareResult, knots: { x: string }[], u: TableUnits, banner: string, settings: string): SheetModel[] {
+  const c = compared(result, knots, u.unit)
+  const head = [axisHeading(u.axis, u.axisUnit), ...c.labels.map(l => `${l}: ${valueHeading(u.kind, u.unit)}`)]
+  const numbers: CellValue[][] = [[banner], [CAUTION], [], head, ...c.xs.map((x, k) => [Number(x), ...c.columns.map(col => Number(col[k]))])]
+  const digits: CellValue[][] = [[banner], [], head, ...c.xs.map((x, k) => [x, ...c.columns.map(col => col[k]!)])]
+  const about: CellValue[][] = [[banner], [CAUTION], [settings]]
+  for (const e of result.entries) {
+    about.push([], [e.label])
+    if (!e.ok) { about.push(['Could not fill this grid', e.error]); continue }
+    for (const row of specRows(e.result.spec as unknown as SpecLike, METHODS, TRANSFORM_LISTING, e.result.points.length)) about.push([row.label, row.value])
+    for (const check of checkRows(u.kind, u.unit)) {
+      const v = verdictOf(check, e.result.diagnostics)
+      about.push([check.name, v ? `${v.good ? 'Fine' : 'Look'}: ${v.text}` : '—'])
+    }
+    for (const f of e.result.money.figures) about.push([f.label, f.value ?? `not available: ${f.reason ?? ''}`])
+  }
+  const widths = [16, ...c.labels.map(() => 30)]
+  return escaped([
+    { name: `Comparison, ${NOT_SIGNED}`, rows: numbers, widths },
+    { name: `Every digit, ${NOT_SIGNED}`, rows: digits, widths: [16, ...c.labels.map(() => 48)] },
+    { name: `Methods, ${NOT_SIGNED}`, rows: about, widths: [40, 110] },
+  ])
+}
