@@ -19,14 +19,12 @@ Written from the papers' formulas in NumPy/SciPy float64, not from the engine's 
 Every value is printed with 17 significant digits.
 """
 import math
-import sys
 import warnings
 
 import numpy as np
-import scipy
 from scipy.integrate import IntegrationWarning, quad
 
-from fixture_io import emit
+from fixture_io import emit, provenance
 
 # quad reports round-off near 1e-16 on these polynomial pieces; the values are good to about that
 warnings.simplefilter("ignore", IntegrationWarning)
@@ -253,9 +251,9 @@ def sw_case(ds):
 
 def main():
     emit("curves-fixture.json", {
-        "source": "independent NumPy/SciPy implementations from Hagan and West (2006) and the EIOPA Smith-Wilson formulas, float64",
-        "generator": "tests/reference/curves_reference.py",
-        "scipy": scipy.__version__, "numpy": np.__version__, "python": sys.version.split()[0],
+        **provenance(
+            "independent NumPy/SciPy implementations from Hagan and West (2006) and the EIOPA Smith-Wilson formulas, float64",
+            "tests/reference/curves_reference.py"),
         "monotoneConvex": [mc_case(ds) for ds in MC_DATASETS],
         "smithWilson": [sw_case(ds) for ds in SW_DATASETS],
     })

@@ -18,16 +18,14 @@ Which SciPy call matches which engine request (both axes unless said):
 - transform log with cubic-not-a-knot: exp of RectBivariateSpline on ln Z.
 Every value is printed with 17 significant digits.
 """
-import sys
 from decimal import Decimal
 
 import numpy as np
-import scipy
 from scipy.interpolate import (Akima1DInterpolator, CubicSpline, RectBivariateSpline, RegularGridInterpolator,
                                make_interp_spline)
 from scipy.sparse.linalg import spsolve
 
-from fixture_io import emit
+from fixture_io import emit, provenance
 
 
 def fmt(v):
@@ -96,9 +94,9 @@ def compute(ds):
 
 def main():
     emit("fill2d-fixture.json", {
-        "source": "SciPy RectBivariateSpline, RegularGridInterpolator and successive 1-D fits, float64",
-        "generator": "tests/reference/fill2d_reference.py",
-        "scipy": scipy.__version__, "numpy": np.__version__, "python": sys.version.split()[0],
+        **provenance(
+            "SciPy RectBivariateSpline, RegularGridInterpolator and successive 1-D fits, float64",
+            "tests/reference/fill2d_reference.py"),
         "datasets": [compute(ds) for ds in DATASETS],
     })
 
