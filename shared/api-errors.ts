@@ -30,6 +30,7 @@ export const API_ERROR_CODES = [
   'fill-missing', // no fill is recorded
   'fill-stale', // the recorded fill was fitted on other points than the version holds (choose it again)
   'wrong-state', // the version is not in the state the action needs
+  'wrong-shape', // a one-way action on a two-way table or the other way round (issue 17)
   'meaning-fixed', // kind, axis and units are fixed once a version left draft
   'name-taken',
   'already-member',

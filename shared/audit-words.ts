@@ -73,13 +73,13 @@ export function describeAuditEvent(e: AuditFacts, names: AuditNames, methods: re
     case 'read-token.create': return `Created the read token ${quote(d.name)} for ${Array.isArray(d.tables) ? `the tables ${d.tables.map(str).join(', ')}` : 'every signed-off table'}.`
     case 'read-token.revoke': return `Revoked the read token ${quote(d.name)}.`
     case 'read-token.read': return `The connected system ${quote(d.token)} read ${version}.`
-    case 'table.create': return `Created the table ${table}${d.importId ? ' from an upload' : ''}.`
+    case 'table.create': return `Created the ${d.shape === 'two-way' ? 'two-way ' : ''}table ${table}${d.importId ? ' from an upload' : ''}.`
     case 'table.update': {
       const changes = Object.entries((d.changes ?? {}) as Record<string, unknown>).map(([k, v]) => (k === 'tags' && Array.isArray(v) ? `tags ${v.join(', ') || 'none'}` : `${k === 'valueUnit' ? 'unit' : k === 'axisUnit' ? 'axis unit' : k} ${quote(v) || str(v)}`))
       return `Changed the details of ${table}${changes.length ? `: ${changes.join('; ')}` : ''}.`
     }
-    case 'version.create': return d.from ? `Started ${version} from version ${str(d.from)}.` : `Created ${version} with ${plural(Number(d.points ?? 0), 'given point')}.`
-    case 'version.points.save': return `Saved ${plural(Number(d.points ?? 0), 'given point')} in ${version}.`
+    case 'version.create': return d.from ? `Started ${version} from version ${str(d.from)}.` : `Created ${version} with ${d.cells !== undefined ? plural(Number(d.cells), 'given cell') : plural(Number(d.points ?? 0), 'given point')}.`
+    case 'version.points.save': return `Saved ${d.cells !== undefined ? plural(Number(d.cells), 'given cell') : plural(Number(d.points ?? 0), 'given point')} in ${version}.`
     case 'version.fill.save': {
       const listing = methods.find(m => m.id === d.method)
       const method = listing ? methodWords(listing, str(d.method), (d.options ?? {}) as Record<string, string>) : str(d.label) || str(d.method)

@@ -15,6 +15,16 @@ export const AXES = ['age', 'policy-year', 'term'] as const
 export type Axis = (typeof AXES)[number]
 export const AXIS_LABELS: Record<Axis, string> = { 'age': 'Age', 'policy-year': 'Policy year', 'term': 'Term' }
 
+/** A table holds one value per row (one-way) or per row and column (two-way: e.g. age at entry by duration). */
+export const SHAPES = ['one-way', 'two-way'] as const
+export type Shape = (typeof SHAPES)[number]
+/** The column axis of a two-way table: duration since entry (select tables), age (lapse by policy year and age), service. */
+export const COL_AXES = ['duration', 'age', 'service'] as const
+export type ColAxis = (typeof COL_AXES)[number]
+export const COL_AXIS_LABELS: Record<ColAxis, string> = { duration: 'Duration', age: 'Age', service: 'Service' }
+/** The heading of the ultimate column, and the word for it in every listing and file. */
+export const ULTIMATE_LABEL = 'Ultimate'
+
 export const AXIS_UNITS = ['years', 'months'] as const
 export type AxisUnit = (typeof AXIS_UNITS)[number]
 
@@ -42,6 +52,11 @@ export const VALUE_NAMES: Record<TableKind, string> = {
 /** "Age (years)", "Term (months)", "Policy year". */
 export function axisHeading(axis: Axis, axisUnit: AxisUnit): string {
   return axis === 'policy-year' ? AXIS_LABELS[axis] : `${AXIS_LABELS[axis]} (${axisUnit})`
+}
+
+/** "Duration (years)", the ultimate column "Ultimate". */
+export function colHeading(colAxis: ColAxis, unit: AxisUnit, d: string | null): string {
+  return d === null ? ULTIMATE_LABEL : `${COL_AXIS_LABELS[colAxis]} ${d}${unit === 'months' ? ' m' : ''}`
 }
 
 /** "q_x (per mille)", "Spot rate (%)", "Salary scale (per unit)". */

@@ -7,7 +7,7 @@ export const MiB = 1024 * KiB
 export const BODY_LIMITS = {
   /** every JSON route and every page unless named below: forms, specs, comments, lists of ids */
   default: 256 * KiB,
-  /** PUT .../points: up to 20,000 points (MAX_POINTS) of 40-digit decimals */
+  /** PUT .../points and .../cells, POST .../tables/two-way: up to 20,000 points or cells (MAX_POINTS) of 40-digit decimals */
   points: 4 * MiB,
   /** import preview and commit: the mapping and the person's cell fixes */
   importMapping: 1 * MiB,
@@ -26,7 +26,9 @@ const ORG = '/api/orgs/[^/]+'
 const RULES: { method: string; path: RegExp; rule: BodyRule }[] = [
   { method: 'POST', path: new RegExp(`^${ORG}/imports/?$`), rule: { limit: null, json: false } }, // the upload, 20 MiB
   { method: 'POST', path: new RegExp(`^${ORG}/exports/verify/?$`), rule: { limit: null, json: false } }, // a signed workbook, 10 MiB
-  { method: 'PUT', path: new RegExp(`^${ORG}/tables/[^/]+/versions/[^/]+/points/?$`), rule: { limit: BODY_LIMITS.points, json: true } },
+  { method: 'PUT', path: new RegExp(`^${ORG}/tables/[^/]+/versions/[^/]+/(points|cells)/?$`), rule: { limit: BODY_LIMITS.points, json: true } },
+  // a new two-way table with its given cells (up to MAX_POINTS, like PUT .../cells)
+  { method: 'POST', path: new RegExp(`^${ORG}/tables/two-way/?$`), rule: { limit: BODY_LIMITS.points, json: true } },
   { method: 'POST', path: new RegExp(`^${ORG}/imports/[^/]+/(preview|commit)/?$`), rule: { limit: BODY_LIMITS.importMapping, json: true } },
   { method: 'POST', path: /^\/api\/webhooks\/stripe\/?$/, rule: { limit: BODY_LIMITS.webhook, json: true } },
 ]

@@ -8,13 +8,15 @@ import { UNIT_KIND_MESSAGE, unitFitsKind } from '#shared/tables'
 import { pointsContentHash } from '../lib/points-hash'
 import { RateTable } from '../database/models'
 import { insertPoints, readPoints } from './points-store'
+import { readCells } from './cells-store'
 import { findTable, findVersion } from './tables'
 import { sortPoints } from '../lib/import/validate'
 
 const SUMMARY_SQL = `
   SELECT v.id, v.number, v.status, v.notes, v.content_hash, v.lock_version, v.created_at, v.updated_at,
          u.id AS author_id, u.name AS author_name,
-         (SELECT count(*)::int FROM version_points p WHERE p.version_id = v.id) AS point_count
+         (SELECT count(*)::int FROM version_points p WHERE p.version_id = v.id)
+           + (SELECT count(*)::int FROM version_grid_points c WHERE c.version_id = v.id) AS point_count
   FROM table_versions v LEFT JOIN users u ON u.id = v.author_id
   WHERE v.org_id = :orgId AND v.table_id = :tableId`
 
@@ -41,6 +43,7 @@ export async function describeTable(orgId: string, tableId: string): Promise<Tab
   const t = await findTable(orgId, tableId)
   return {
     id: t.id, name: t.name, kind: t.kind, axis: t.axis, axisUnit: t.axisUnit, valueUnit: t.valueUnit,
+    shape: t.shape, colAxis: t.colAxis ?? null, colAxisUnit: t.colAxisUnit ?? null, hasUltimate: t.hasUltimate,
     description: t.description, tags: t.tags, createdAt: t.createdAt.toISOString(), updatedAt: t.updatedAt.toISOString(),
     versions: await listVersions(orgId, tableId),
   }
@@ -49,7 +52,7 @@ export async function describeTable(orgId: string, tableId: string): Promise<Tab
 export async function getVersion(orgId: string, tableId: string, number: number): Promise<VersionDto> {
   const { id } = await findVersion(orgId, tableId, number)
   const [row] = await useDb().query<Row>(`${SUMMARY_SQL} AND v.id = :id`, { replacements: { orgId, tableId, id }, type: QueryTypes.SELECT })
-  return { ...toSummary(row!), points: await readPoints(id) }
+  return { ...toSummary(row!), points: await readPoints(id), cells: await readCells(id) }
 }
 
 export async function updateTable(event: H3Event, access: OrgAccess, tableId: string, input: TableUpdateInput): Promise<TableDto> {
@@ -77,6 +80,7 @@ export async function updateTable(event: H3Event, access: OrgAccess, tableId: st
 /** Saves a draft's points under the optimistic lock: a stale lockVersion gets 409 and changes nothing. */
 export async function savePoints(event: H3Event, access: OrgAccess, tableId: string, number: number, input: SavePointsInput): Promise<VersionDto> {
   const table = await findTable(access.org.id, tableId)
+  if (table.shape === 'two-way') throw apiError(409, 'wrong-shape', 'This is a two-way table: save its cells (row, column, value) instead of points.')
   const problems: string[] = []
   for (const p of input.points) {
     const a = checkAxis(p.x)
@@ -121,7 +125,8 @@ export async function newDraftFrom(event: H3Event, access: OrgAccess, tableId: s
        VALUES (:orgId, :tableId, :next, 'draft', :author, :notes, :hash) RETURNING id`,
       { replacements: { orgId: access.org.id, tableId, next, author: access.user.id, notes: `Started from version ${fromNumber}.`, hash: source.content_hash }, type: QueryTypes.SELECT, transaction: t })
     const newId = created!.id as string
-    await useDb().query('INSERT INTO version_points (version_id, x, y) SELECT :newId, x, y FROM version_points WHERE version_id = :from',
+    await useDb().query(`INSERT INTO version_points (version_id, x, y) SELECT :newId, x, y FROM version_points WHERE version_id = :from;
+      INSERT INTO version_grid_points (version_id, x, d, y) SELECT :newId, x, d, y FROM version_grid_points WHERE version_id = :from`,
       { replacements: { newId, from: source.id }, transaction: t })
     await audit(event, { orgId: access.org.id, action: 'version.create', objectType: 'table_version', objectId: newId, detail: { tableId, number: next, from: fromNumber } }, t)
     return next

@@ -1,6 +1,8 @@
-import type { Axis, AxisUnit, TableKind, ValueUnit, VersionStatus } from '../tables'
+import type { Axis, AxisUnit, ColAxis, Shape, TableKind, ValueUnit, VersionStatus } from '../tables'
 
 export interface PointDto { x: string; y: string } // stored per-unit decimals as strings
+/** A cell of a two-way table: row x, column d (null: the ultimate column), per-unit value y. */
+export interface CellDto { x: string; d: string | null; y: string }
 
 export interface VersionSummaryDto {
   id: string
@@ -15,7 +17,8 @@ export interface VersionSummaryDto {
   updatedAt: string
 }
 
-export interface VersionDto extends VersionSummaryDto { points: PointDto[] }
+/** `cells` are a two-way version's given cells (empty for a one-way table, whose `points` are empty for a two-way one). */
+export interface VersionDto extends VersionSummaryDto { points: PointDto[]; cells: CellDto[] }
 
 export interface TableDto {
   id: string
@@ -24,6 +27,11 @@ export interface TableDto {
   axis: Axis
   axisUnit: AxisUnit
   valueUnit: ValueUnit
+  shape: Shape
+  /** The column axis of a two-way table (null for one-way). */
+  colAxis: ColAxis | null
+  colAxisUnit: AxisUnit | null
+  hasUltimate: boolean
   description: string
   tags: string[]
   createdAt: string

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
-import type { Axis, AxisUnit, TableKind, ValueUnit } from '#shared/tables'
+import type { Axis, AxisUnit, ColAxis, Shape, TableKind, ValueUnit } from '#shared/tables'
 
 export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAttributes<RateTable>> {
   declare id: CreationOptional<string>
@@ -9,6 +9,10 @@ export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAt
   declare axis: Axis
   declare axisUnit: CreationOptional<AxisUnit>
   declare valueUnit: CreationOptional<ValueUnit>
+  declare shape: CreationOptional<Shape>
+  declare colAxis: CreationOptional<ColAxis | null>
+  declare colAxisUnit: CreationOptional<AxisUnit | null>
+  declare hasUltimate: CreationOptional<boolean>
   declare description: CreationOptional<string>
   declare tags: CreationOptional<string[]>
   declare createdBy: string | null
@@ -24,6 +28,10 @@ export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAt
       axis: { type: DataTypes.TEXT, allowNull: false },
       axisUnit: { type: DataTypes.TEXT, defaultValue: 'years' },
       valueUnit: { type: DataTypes.TEXT, defaultValue: 'per-unit' },
+      shape: { type: DataTypes.TEXT, defaultValue: 'one-way' },
+      colAxis: { type: DataTypes.TEXT, allowNull: true },
+      colAxisUnit: { type: DataTypes.TEXT, allowNull: true },
+      hasUltimate: { type: DataTypes.BOOLEAN, defaultValue: false },
       description: { type: DataTypes.TEXT, defaultValue: '' },
       tags: { type: DataTypes.ARRAY(DataTypes.TEXT), defaultValue: [] },
       createdBy: { type: DataTypes.UUID, allowNull: true },

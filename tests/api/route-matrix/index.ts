@@ -7,6 +7,7 @@ import { reviewRoutes } from './review'
 import { readTokenRoutes } from './read-tokens'
 import { trustRoutes } from './trust'
 import { runsRoutes } from './runs'
+import { twoWayRoutes } from './two-way'
 import type { RouteExpectation } from './types'
 
 // Each feature adds its own file and spreads it here.
@@ -20,4 +21,5 @@ export const ROUTES: Record<string, RouteExpectation> = {
   ...readTokenRoutes,
   ...trustRoutes,
   ...runsRoutes,
+  ...twoWayRoutes,
 }
