@@ -506,3 +506,49 @@ export interface GraduateResult {
   spec: GraduationSpec
   diagnostics: GraduationDiagnostics
 }
+
+// ---- Select-and-ultimate fills of two-way tables (issue 17) ----
+
+/** A given cell of a two-way table: d null is the ultimate column (q at attained age x + n, n the select period). */
+export interface SelectCell { x: string, d: string | null, y: string }
+
+export interface SelectFillRequest {
+  cells: SelectCell[]
+  /** The method along each axis of the select block; the ultimate column is filled with the x method (one-way). */
+  method: { x: AxisMethod, d: AxisMethod }
+  /** The wanted rows and select columns. */
+  grid: { x: AxisPoints, d: AxisPoints }
+  transform?: TransformId
+  extrapolation?: ExtrapolationRule
+  precision?: number
+  kind?: TableKind
+  /** Money along the select-then-ultimate path: entry ages and the annual interest rate (decimal text, e.g. '0.03'). */
+  money?: { ages?: number[], interest?: string }
+}
+
+export interface SelectCheck {
+  key: 'select-below-ultimate' | 'rising-with-duration' | 'smooth-rows' | 'smooth-columns' | 'select-ratio'
+  /** null: not checked (the detail says why: kind, no ultimate column, durations not 0..n-1). */
+  passed: boolean | null
+  /** The worst cell or figure, in words the bench and the workbook show. */
+  detail: string
+  /** Cells that fail, at most 20, "row/column". */
+  cells: string[]
+}
+
+export interface SelectMoneyFigure { age: number, selectAnnuity: string | null, ultimateAnnuity: string | null, selectExpectation: string | null, reason: string | null }
+
+export interface SelectFillResult {
+  /** Filled select cells (row by row, d ascending) then the ultimate column (d null). */
+  points: SelectCell[]
+  spec: {
+    engineVersion: string
+    select: Resolved2DSpec
+    /** The ultimate column's one-way spec (null when the table has no ultimate column). */
+    ultimate: ResolvedSpec | null
+    selectPeriod: number | null
+  }
+  checks: SelectCheck[]
+  money: { interest: string, figures: SelectMoneyFigure[], note: string }
+  maxKnotDeviation: string
+}
