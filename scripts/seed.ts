@@ -2,6 +2,7 @@
 import { createSequelize } from '../server/database/connection'
 import { seedPeople, DEMO_PASSWORD } from './seed/people'
 import { seedTables } from './seed/tables'
+import { seedSelectTable } from './seed/select-table'
 import { seedBilling } from './seed/billing'
 import { seedApprovals } from './seed/approvals'
 
@@ -16,6 +17,7 @@ try {
     const people = await db.transaction(async (t) => {
       const people = await seedPeople(db, t)
       await seedTables(db, t, people)
+      await seedSelectTable(db, t, people)
       await seedApprovals(db, t, people)
       await seedBilling(db, t, people)
       return people

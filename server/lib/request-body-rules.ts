@@ -29,7 +29,7 @@ const RULES: { method: string; path: RegExp; rule: BodyRule }[] = [
   { method: 'PUT', path: new RegExp(`^${ORG}/tables/[^/]+/versions/[^/]+/(points|cells)/?$`), rule: { limit: BODY_LIMITS.points, json: true } },
   // a new two-way table with its given cells (up to MAX_POINTS, like PUT .../cells)
   { method: 'POST', path: new RegExp(`^${ORG}/tables/two-way/?$`), rule: { limit: BODY_LIMITS.points, json: true } },
-  { method: 'POST', path: new RegExp(`^${ORG}/imports/[^/]+/(preview|commit)/?$`), rule: { limit: BODY_LIMITS.importMapping, json: true } },
+  { method: 'POST', path: new RegExp(`^${ORG}/imports/[^/]+/(preview|commit|matrix-preview|matrix-commit)/?$`), rule: { limit: BODY_LIMITS.importMapping, json: true } },
   { method: 'POST', path: /^\/api\/webhooks\/stripe\/?$/, rule: { limit: BODY_LIMITS.webhook, json: true } },
 ]
 

@@ -10,8 +10,13 @@ const PICK_SHEET = `FROM imports i CROSS JOIN LATERAL (SELECT e AS s FROM jsonb_
  * workbook in one piece (which held every other request for a few hundred ms at the cell cap). jsonb, not text[]: pg
  * parses JSON natively, arrays in JavaScript (about twice as slow). null: no such sheet.
  */
-export async function loadMappedSheet(importId: string, m: ImportMapping, t?: Transaction): Promise<StoredSheet | null> {
-  const cols = [m.axisColumn, ...m.columns.map(c => c.index)]
+export function loadMappedSheet(importId: string, m: ImportMapping, t?: Transaction): Promise<StoredSheet | null> {
+  return loadSheetColumns(importId, m.sheet, [m.axisColumn, ...m.columns.map(c => c.index)], t)
+}
+
+/** The same for any list of columns (a matrix sheet reads its row axis column and every column of values). */
+export async function loadSheetColumns(importId: string, sheetName: string, cols: number[], t?: Transaction): Promise<StoredSheet | null> {
+  const m = { sheet: sheetName }
   // written into the SQL below: the mapping schema allows only small whole numbers, checked again here
   if (!cols.every(c => Number.isInteger(c) && c >= 0 && c < 1000)) throw new Error('column index out of range')
   const db = useDb()

@@ -28,7 +28,7 @@ export function startImportRead(event: H3Event, access: OrgAccess, fileName: str
 }
 
 /** The caller's own, unexpired import in this organisation (with its cells as JSON text when asked); 404 for anyone else's. */
-async function loadImport(access: OrgAccess, id: string, options: { cells?: boolean, t?: Transaction, lock?: boolean } = {}): Promise<ImportRow & { sheets_json?: string }> {
+export async function loadImport(access: OrgAccess, id: string, options: { cells?: boolean, t?: Transaction, lock?: boolean } = {}): Promise<ImportRow & { sheets_json?: string }> {
   if (!isUuid(id)) notFound('upload')
   const [row] = await useDb().query<ImportRow & { sheets_json?: string }>(
     `SELECT id, file_name, file_kind, size_bytes, sheet_summary, created_at, expires_at${options.cells ? ', sheets::text AS sheets_json' : ''} FROM imports

@@ -1,4 +1,4 @@
-import { QueryTypes } from 'sequelize'
+import { QueryTypes, type Transaction } from 'sequelize'
 import type { H3Event } from 'h3'
 import type { OrgAccess } from '../utils/auth'
 import type { CellDto, TableDto, VersionDto } from '#shared/types/tables'
@@ -30,26 +30,29 @@ function checkCells(kind: TableKind, cells: CellDto[], hasUltimate: boolean): Ce
 }
 
 /** A new two-way table with working draft 1 holding the given cells. */
-export async function createTwoWayTable(event: H3Event, access: OrgAccess, input: CreateTwoWayInput, origin: { importId?: string, notes?: string } = {}): Promise<TableDto> {
+export async function createTwoWayTable(event: H3Event, access: OrgAccess, input: CreateTwoWayInput): Promise<TableDto> {
+  const tableId = await inTransaction(t => insertTwoWayTable(event, access, input, {}, t))
+  return describeTable(access.org.id, tableId)
+}
+
+/** The table, its draft 1 and their audit events, inside the caller's transaction (the import creates them with its own events). */
+export async function insertTwoWayTable(event: H3Event, access: OrgAccess, input: CreateTwoWayInput, origin: { importId?: string, notes?: string }, t: Transaction): Promise<string> {
   const cells = checkCells(input.kind, input.cells, input.hasUltimate)
   const hash = gridContentHash(cells)
   const orgId = access.org.id
-  if (await RateTable.findOne({ where: { orgId, name: input.name } })) throw apiError(409, 'name-taken', `A table called "${input.name}" already exists.`)
-  const tableId = await inTransaction(async (t) => {
-    const table = await RateTable.create({
-      orgId, name: input.name, kind: input.kind, axis: input.axis, axisUnit: input.axisUnit, valueUnit: input.valueUnit, description: input.description,
-      shape: 'two-way', colAxis: input.colAxis, colAxisUnit: input.colAxisUnit, hasUltimate: input.hasUltimate, createdBy: access.user.id,
-    }, { transaction: t })
-    const [v] = await useDb().query<{ id: string }>(
-      `INSERT INTO table_versions (org_id, table_id, number, status, author_id, notes, content_hash)
-       VALUES (:orgId, :tableId, 1, 'draft', :userId, :notes, :hash) RETURNING id`,
-      { replacements: { orgId, tableId: table.id, userId: access.user.id, notes: origin.notes ?? '', hash }, type: QueryTypes.SELECT, transaction: t })
-    await insertCells(v!.id, cells, t)
-    await audit(event, { orgId, action: 'table.create', objectType: 'rate_table', objectId: table.id, detail: { name: input.name, kind: input.kind, valueUnit: input.valueUnit, shape: 'two-way', colAxis: input.colAxis, hasUltimate: input.hasUltimate, ...(origin.importId ? { importId: origin.importId } : {}) } }, t)
-    await audit(event, { orgId, action: 'version.create', objectType: 'table_version', objectId: v!.id, detail: { tableId: table.id, number: 1, cells: cells.length, contentHash: hash } }, t)
-    return table.id
-  })
-  return describeTable(orgId, tableId)
+  if (await RateTable.findOne({ where: { orgId, name: input.name }, transaction: t })) throw apiError(409, 'name-taken', `A table called "${input.name}" already exists.`)
+  const table = await RateTable.create({
+    orgId, name: input.name, kind: input.kind, axis: input.axis, axisUnit: input.axisUnit, valueUnit: input.valueUnit, description: input.description,
+    shape: 'two-way', colAxis: input.colAxis, colAxisUnit: input.colAxisUnit, hasUltimate: input.hasUltimate, createdBy: access.user.id,
+  }, { transaction: t })
+  const [v] = await useDb().query<{ id: string }>(
+    `INSERT INTO table_versions (org_id, table_id, number, status, author_id, notes, content_hash)
+     VALUES (:orgId, :tableId, 1, 'draft', :userId, :notes, :hash) RETURNING id`,
+    { replacements: { orgId, tableId: table.id, userId: access.user.id, notes: origin.notes ?? '', hash }, type: QueryTypes.SELECT, transaction: t })
+  await insertCells(v!.id, cells, t)
+  await audit(event, { orgId, action: 'table.create', objectType: 'rate_table', objectId: table.id, detail: { name: input.name, kind: input.kind, valueUnit: input.valueUnit, shape: 'two-way', colAxis: input.colAxis, hasUltimate: input.hasUltimate, ...(origin.importId ? { importId: origin.importId } : {}) } }, t)
+  await audit(event, { orgId, action: 'version.create', objectType: 'table_version', objectId: v!.id, detail: { tableId: table.id, number: 1, cells: cells.length, contentHash: hash } }, t)
+  return table.id
 }
 
 /** Saves a two-way draft's cells under the optimistic lock: a stale lockVersion gets 409 and changes nothing. */

@@ -65,7 +65,7 @@ describe('money of a constant rate', () => {
 describe('checks of a select table', () => {
   const rows = ['30', '31', '32', '33', '34', '35']
   const base = (x: string, d: number) => new T('0.001').plus(new T(x).minus(30).times('0.0001')).plus(d * 0.0002)
-  const table = (edit: (x: string, d: string | null, y: T) => T): SelectCell[] => rows.flatMap(x => [
+  const table = (edit: (x: string, d: string | null, y: InstanceType<typeof T>) => InstanceType<typeof T>): SelectCell[] => rows.flatMap(x => [
     ...[0, 1].map(d => ({ x, d: String(d), y: edit(x, String(d), base(x, d)).toString() })),
     { x, d: null, y: edit(x, null, base(x, 3)).toString() },
   ])

@@ -3,6 +3,7 @@ import type { ColumnSuggestion, ImportFinding, ImportPreviewDto, ImportSheetDto,
 import { guessAxis, proposeHeaderRow, suggestColumns } from '../../import/analyse'
 import { readWorkbook, type StoredSheet } from '../../import/read-workbook'
 import { validateMapping } from '../../import/validate'
+import { suggestMatrix, type MatrixSuggestion } from '../../import/matrix'
 import { pointsContentHash } from '../../points-hash'
 import { chunkPoints, type PointChunk } from '../point-chunks'
 
@@ -23,7 +24,7 @@ export function summarise(sheets: StoredSheet[]): ImportSheetSummary[] {
 
 const sheetOf = (sheets: StoredSheet[], name?: string) => sheets.find(s => s.name === name)
 
-export interface DescribeOutput { sheet: ImportSheetDto, columns: ColumnSuggestion[], axis: ReturnType<typeof guessAxis> }
+export interface DescribeOutput { sheet: ImportSheetDto, columns: ColumnSuggestion[], axis: ReturnType<typeof guessAxis>, matrix: MatrixSuggestion | null }
 
 /** One sheet's first rows, the header row guess, and a role, kind and unit suggested for each column. */
 export function describeTask(input: { sheetsJson: string, sheetName?: string, headerRow?: number }): DescribeOutput {
@@ -37,6 +38,7 @@ export function describeTask(input: { sheetsJson: string, sheetName?: string, he
     sheet: { name: sheet.name, head: sheet.rows.slice(0, 40).map(r => r.slice(0, sheet.colCount)), rowCount: sheet.rows.length, colCount: sheet.colCount, headerGuess: guess },
     columns,
     axis: guessAxis(axisCol?.header ?? ''),
+    matrix: suggestMatrix(sheet),
   }
 }
 

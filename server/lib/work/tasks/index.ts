@@ -1,6 +1,7 @@
 import type { TaskContext } from './context'
 import { compareTask, fillTask } from './engine'
 import { describeTask, previewTask, readUploadTask, validateTask } from './imports'
+import { previewMatrixTask, validateMatrixTask } from './import-matrix'
 import { buildExportTask, signBodyTask, verifyExportTask } from './signing'
 
 /**
@@ -15,6 +16,8 @@ export const TASKS = {
   describeImport: describeTask,
   previewImport: previewTask,
   validateImport: validateTask,
+  previewMatrix: previewMatrixTask,
+  validateMatrix: validateMatrixTask,
   buildExport: buildExportTask,
   signBody: signBodyTask,
   verifyExport: verifyExportTask,
