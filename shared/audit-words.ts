@@ -81,6 +81,7 @@ export function describeAuditEvent(e: AuditFacts, names: AuditNames, methods: re
     case 'version.create': return d.from ? `Started ${version} from version ${str(d.from)}.` : `Created ${version} with ${d.cells !== undefined ? plural(Number(d.cells), 'given cell') : plural(Number(d.points ?? 0), 'given point')}.`
     case 'version.points.save': return `Saved ${d.cells !== undefined ? plural(Number(d.cells), 'given cell') : plural(Number(d.points ?? 0), 'given point')} in ${version}.`
     case 'version.fill.save': {
+      if (d.shape === 'two-way') return `Chose ${str(d.label)} (a method per axis) as the fill of ${version} (${plural(Number(d.cells ?? 0), 'value')}). Reasons: ${quote(d.rationale)}`
       const listing = methods.find(m => m.id === d.method)
       const method = listing ? methodWords(listing, str(d.method), (d.options ?? {}) as Record<string, string>) : str(d.label) || str(d.method)
       return `Chose ${method} as the fill of ${version} (${plural(Number(d.points ?? 0), 'value')}). Reasons: ${quote(d.rationale)}`

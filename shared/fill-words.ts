@@ -68,3 +68,33 @@ export function specRows(spec: SpecLike, methods: readonly MethodListing[], tran
   if (spec.engineVersion) rows.push({ label: 'Engine version', value: spec.engineVersion })
   return rows
 }
+
+/** The parts of a stored two-way fill spec (issue 17) these words need. */
+export interface GridSpecLike {
+  select: { methods: { x: { method: string, options?: Record<string, string> }, d: { method: string, options?: Record<string, string> } }, transform?: string, extrapolation?: string, precision?: number }
+  selectPeriod?: number | null
+  engineVersion?: string
+  bench?: { grid?: { x: { from: string, to: string, step: string }, d: { from: string, to: string, step: string } }, money?: { ages?: number[], interest?: string } }
+  ultimate?: unknown
+}
+
+/** A two-way fill's settings as rows of words: the method along each axis, the grid of rows and columns, the rest as one-way. */
+export function gridSpecRows(spec: GridSpecLike, methods: readonly MethodListing[], transforms: readonly TransformListing[], names: { rows: string, columns: string }): WordRow[] {
+  const words = (m: { method: string, options?: Record<string, string> }) => methodWords(methods.find(l => l.id === m.method), m.method, m.options)
+  const s = spec.select
+  const rows: WordRow[] = [
+    { label: `Method along ${names.rows}`, value: words(s.methods.x) },
+    { label: `Method along ${names.columns}`, value: words(s.methods.d) },
+    { label: 'Ultimate column', value: spec.ultimate ? `filled along ${names.rows} with the same method` : 'none' },
+    { label: 'Interpolated on', value: transformWords(transforms, s.transform) },
+  ]
+  if (s.extrapolation) rows.push({ label: 'Outside the given points', value: EXTRAPOLATION_LABELS[s.extrapolation as ExtrapolationRule] ?? s.extrapolation })
+  const g = spec.bench?.grid
+  if (g) rows.push({ label: 'Grid', value: `${names.rows} ${g.x.from} to ${g.x.to} step ${g.x.step}; ${names.columns} ${g.d.from} to ${g.d.to} step ${g.d.step}` })
+  if (spec.selectPeriod) rows.push({ label: 'Select period', value: `${spec.selectPeriod} years` })
+  if (s.precision) rows.push({ label: 'Precision', value: `${s.precision} significant digits, rounded half to even` })
+  const money = spec.bench?.money
+  if (money?.ages?.length) rows.push({ label: 'Money view', value: `entry ages ${money.ages.join(', ')}${money.interest ? ` at ${fromPerUnit(money.interest, 'percent')}% interest` : ''}` })
+  if (spec.engineVersion) rows.push({ label: 'Engine version', value: spec.engineVersion })
+  return rows
+}

@@ -16,3 +16,4 @@ export { DEFAULT_PRECISION, MIN_PRECISION, MAX_PRECISION, GUARD_DIGITS } from '.
 export type * from './types'
 export { REVIEW_CAUTION } from './types'
 export { fillSelect } from './select'
+export { compareSelect, choiceLabel } from './select-compare'

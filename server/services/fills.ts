@@ -26,12 +26,19 @@ function engineFailure(error: unknown): never {
   throw error
 }
 
+/** The one-way bench refuses a two-way table (its cells go to the two-way bench: services/grid-fills.ts). */
+function oneWay<T extends { shape: string }>(table: T): T {
+  if (table.shape === 'two-way') throw apiError(409, 'wrong-shape', 'This is a two-way table: use the two-way fill bench (a method per axis).')
+  return table
+}
+
 /**
  * Starts a comparison of every chosen method over the version's stored points (read-only: any version) as a run: light
  * ones here at once, heavy ones (a fine grid, many methods, transforms) on the queue for any node. 404 before anything
  * starts when the version is not the caller's organisation's.
  */
 export async function startCompare(access: OrgAccess, tableId: string, number: number, input: CompareInput): Promise<{ id: string, runKey: string }> {
+  oneWay(await findTable(access.org.id, tableId))
   await findVersion(access.org.id, tableId, number)
   const points = gridPointCount(input.grid.from, input.grid.to, input.grid.step) ?? 0
   const work = input.methods.reduce((sum, m) => sum + points * ((m.transform ?? input.transform) !== 'none' || m.method === 'log-linear' ? 20 : 1), 0)
@@ -44,7 +51,7 @@ export async function startCompare(access: OrgAccess, tableId: string, number: n
  * under the optimistic lock: a stale lockVersion, or a version that is no longer a draft, gets 409 and changes nothing.
  */
 export async function saveFill(event: H3Event, access: OrgAccess, tableId: string, number: number, input: SaveFillInput, signal?: AbortSignal): Promise<SavedFillDto> {
-  const table = await findTable(access.org.id, tableId)
+  const table = oneWay(await findTable(access.org.id, tableId))
   // the engine runs in a worker thread before the transaction, so no row stays locked while it computes; the lock
   // version read with the points must still be the draft's when the values are written
   const read = await findVersion(access.org.id, tableId, number)
@@ -78,6 +85,7 @@ export async function saveFill(event: H3Event, access: OrgAccess, tableId: strin
 
 /** The version's chosen fill (null when none), optionally with its values. */
 export async function getFill(orgId: string, tableId: string, number: number, withPoints: boolean): Promise<SavedFillDto | null> {
+  oneWay(await findTable(orgId, tableId))
   const { id } = await findVersion(orgId, tableId, number)
   const [found] = await useDb().query<Row>(
     `SELECT v.id, v.fill_spec, v.fill_rationale, v.fill_diagnostics, v.fill_money, v.filled_at, v.content_hash, v.lock_version,

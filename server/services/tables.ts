@@ -43,7 +43,8 @@ export async function findVersion(orgId: string, tableId: string, number: number
   if (!isUuid(tableId) || !Number.isSafeInteger(number)) notFound('version')
   const [row] = await useDb().query<Record<string, unknown>>(`
     SELECT v.id, v.number, v.status, v.table_id, rt.name AS table_name, v.lock_version, v.content_hash, v.author_id, v.filled_by, v.submitted_by,
-           (v.fill_spec IS NOT NULL AND EXISTS (SELECT 1 FROM version_fill_points f WHERE f.version_id = v.id)) AS has_fill,
+           (v.fill_spec IS NOT NULL AND (EXISTS (SELECT 1 FROM version_fill_points f WHERE f.version_id = v.id)
+             OR EXISTS (SELECT 1 FROM version_grid_fill_points g WHERE g.version_id = v.id))) AS has_fill,
            (v.fill_spec IS NOT NULL AND ${FITTED_ON} IS DISTINCT FROM v.content_hash) AS fill_stale
     FROM table_versions v JOIN rate_tables rt ON rt.id = v.table_id
     WHERE v.org_id = :orgId AND v.table_id = :tableId AND v.number = :number ${lock && transaction ? 'FOR UPDATE OF v' : ''}`,

@@ -552,3 +552,10 @@ export interface SelectFillResult {
   money: { interest: string, figures: SelectMoneyFigure[], note: string }
   maxKnotDeviation: string
 }
+
+/** Several choices of a method per axis on the same select table, side by side (issue 17). */
+export interface SelectCompareResult {
+  choices: { label: string, result: SelectFillResult }[]
+  /** Each choice against the first: the largest absolute difference and where (row/column). */
+  differences: { label: string, maxAbsDiff: string, at: string | null }[]
+}

@@ -1,5 +1,5 @@
 import { ownerDb } from '../helpers'
-import { ROLE_ONLY, type MatrixContext, type RouteExpectation } from './types'
+import { EVERY_MEMBER, ROLE_ONLY, type MatrixContext, type RouteExpectation } from './types'
 
 // Two-way tables (issue 17). An empty body fails validation (400) after the permission check, which counts as 'pass'.
 const EDITORS = ROLE_ONLY(['actuary', 'analyst'])
@@ -19,5 +19,9 @@ export const twoWayRoutes: Record<string, RouteExpectation> = {
   'POST /api/orgs/[org]/tables/two-way': { csrf: 'json', path: ctx => `/api/orgs/${ctx.org}/tables/two-way`, body: {}, expect: EDITORS },
   'POST /api/orgs/[org]/imports/[import]/matrix-preview': { csrf: 'json', path: async ctx => `${await analystMatrix(ctx)}/matrix-preview`, body: {}, expect: EDITORS },
   'POST /api/orgs/[org]/imports/[import]/matrix-commit': { csrf: 'json', path: async ctx => `${await analystMatrix(ctx)}/matrix-commit`, body: {}, expect: EDITORS },
+  // on the demo's one-way draft a member gets past the checks and hears 409 wrong-shape (or 400 for the empty body)
+  'POST /api/orgs/[org]/tables/[table]/versions/[version]/grid-compare': { csrf: 'json', path: ctx => `${draft(ctx)}/grid-compare`, body: {}, expect: EDITORS },
+  'POST /api/orgs/[org]/tables/[table]/versions/[version]/grid-fill': { csrf: 'json', path: ctx => `${draft(ctx)}/grid-fill`, body: {}, expect: EDITORS },
+  'GET /api/orgs/[org]/tables/[table]/versions/[version]/grid-fill': { path: ctx => `${draft(ctx)}/grid-fill`, expect: EVERY_MEMBER },
   'PUT /api/orgs/[org]/tables/[table]/versions/[version]/cells': { csrf: 'json', path: ctx => `${draft(ctx)}/cells`, body: {}, expect: EDITORS },
 }

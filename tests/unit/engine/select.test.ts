@@ -2,7 +2,7 @@
 // path against SciPy (tests/reference/select_reference.py: CubicSpline natural along x, numpy.interp along d), the
 // annuity of a constant rate against the closed form of a geometric series, and the checks on tables made to fail them.
 import { describe, expect, it } from 'vitest'
-import { fillSelect, type SelectCell } from '~~/server/engine'
+import { compareSelect, fillSelect, type SelectCell } from '~~/server/engine'
 import { T } from './helpers'
 import { loadReference } from './reference'
 
@@ -98,5 +98,19 @@ describe('checks of a select table', () => {
     const c = run(table((_x, _d, y) => y), 'lapse').checks.find(k => k.key === 'select-below-ultimate')!
     expect(c.passed).toBeNull()
     expect(c.detail).toMatch(/mortality tables only/)
+  })
+})
+
+describe('compareSelect', () => {
+  it('measures every choice against the first: the largest absolute difference over all filled cells and where', () => {
+    const request = { cells: cellsOf(ref), kind: 'mortality' as const, grid: { x: { from: '20', to: '60', step: '1' }, d: ['0', '1', '2', '3', '4'] } }
+    const r = compareSelect(request, [{ x: { method: 'linear' }, d: { method: 'linear' } }, { x: { method: 'cubic-natural' }, d: { method: 'linear' }, label: 'spline rows' }])
+    expect(r.differences[0]).toEqual({ label: 'linear × linear', maxAbsDiff: '0', at: null })
+    const [a, b] = r.choices.map(c => c.result.points)
+    let worst = new T(0)
+    a!.forEach((p, k) => { const d = new T(b![k]!.y).minus(p.y).abs(); if (d.gt(worst)) worst = d })
+    expect(r.differences[1]!.label).toBe('spline rows')
+    expect(new T(r.differences[1]!.maxAbsDiff).eq(worst)).toBe(true)
+    expect(worst.gt(0)).toBe(true)
   })
 })

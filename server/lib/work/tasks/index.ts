@@ -2,6 +2,7 @@ import type { TaskContext } from './context'
 import { compareTask, fillTask } from './engine'
 import { describeTask, previewTask, readUploadTask, validateTask } from './imports'
 import { previewMatrixTask, validateMatrixTask } from './import-matrix'
+import { gridCompareTask, gridFillTask } from './grid'
 import { buildExportTask, signBodyTask, verifyExportTask } from './signing'
 
 /**
@@ -12,6 +13,8 @@ import { buildExportTask, signBodyTask, verifyExportTask } from './signing'
 export const TASKS = {
   compare: compareTask,
   fill: fillTask,
+  gridCompare: gridCompareTask,
+  gridFill: gridFillTask,
   readUpload: readUploadTask,
   describeImport: describeTask,
   previewImport: previewTask,
