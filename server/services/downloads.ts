@@ -6,7 +6,7 @@ import { transformWords } from '#shared/fill-words'
 import type { CompareInput } from '#shared/schemas/fills'
 import { TRANSFORM_LISTING } from '../engine/index'
 import { compareCsv, compareSheets, fillCsv, fillSheets, unitsOfRecord } from '../lib/table-files'
-import { writeWorkbook } from '../lib/signing'
+import { readableSheetsV3, writeWorkbook } from '../lib/signing'
 import { versionRecord } from './version-record'
 import type { CompareResponseDto } from '#shared/types/fills'
 import { compareJson } from './work/kinds/compare'
@@ -26,6 +26,11 @@ export async function fillDownload(access: OrgAccess, tableId: string, number: n
     ? `NOT SIGNED OFF (unsigned copy): version ${r.version.number} of ${r.table.name} is ${status}, but this copy, made ${formatUtc(now)}, carries no signature. The signed workbook is the record.`
     : `NOT SIGNED OFF: a working copy of version ${r.version.number} of ${r.table.name} (${status}) and ${what}, made ${formatUtc(now)}. It may still change and has had no second check.`
   const fileName = `${safe(r.table.name)}-v${number}-NOT-SIGNED-OFF.${format}`
+  if ('cells' in r) {
+    // a two-way table: its sheets as the signed workbook of format 3 has them; a CSV would need one layout of our choosing
+    if (format === 'csv') throw apiError(409, 'wrong-shape', 'A two-way table downloads as .xlsx (rows, columns and values); a CSV copy is not offered.')
+    return { fileName, contentType: TYPES.xlsx, data: await writeWorkbook(readableSheetsV3(r, [banner], []).map(s => ({ ...s, name: `${s.name}, not signed off`.slice(0, 31) })), now) }
+  }
   if (format === 'csv') return { fileName, contentType: TYPES.csv, data: fillCsv(r, banner) }
   return { fileName, contentType: TYPES.xlsx, data: await writeWorkbook(fillSheets(r, banner), now) }
 }
@@ -33,6 +38,7 @@ export async function fillDownload(access: OrgAccess, tableId: string, number: n
 /** The comparison is run again (in a worker thread), so the file shows exactly these settings on the points as they are now. */
 export async function compareDownload(access: OrgAccess, tableId: string, number: number, input: CompareInput, format: DownloadFormat, signal?: AbortSignal): Promise<DownloadFile> {
   const r = await versionRecord(access.org, tableId, number)
+  if ('cells' in r) throw apiError(409, 'wrong-shape', 'This is a two-way table: its comparisons are on the two-way bench.')
   const answer = JSON.parse(await compareJson(access.org.id, tableId, number, input, signal)) as CompareResponseDto
   const now = new Date().toISOString()
   const banner = `NOT SIGNED OFF: a comparison of ${answer.result.entries.length} methods on the fill bench for version ${number} of ${r.table.name}, made ${formatUtc(now)}. Nothing here was chosen, checked or signed off.`

@@ -2,7 +2,7 @@ import type { H3Event } from 'h3'
 import type { KeyObject } from 'node:crypto'
 import { QueryTypes, type Transaction } from 'sequelize'
 import { isUuid } from '#shared/schemas/route-params'
-import { SIGNED_FORMAT, type AnySignedContent, type SignedContent, type SignedHead } from '../lib/signing'
+import { SIGNED_FORMAT, SIGNED_FORMAT_V3, type AnySignedContent, type SignedContent, type SignedHead } from '../lib/signing'
 import { runTask } from '../lib/work/pool'
 import type { OrgAccess } from '../utils/auth'
 import type { ExportVerdictDto } from '#shared/types/exports'
@@ -28,6 +28,8 @@ export const pkcs8Of = (key: KeyObject) => new Uint8Array(key.export({ format: '
 export async function signedContent(org: OrgRef, tableId: string, number: number, keyId: string, t?: Transaction): Promise<SignedContent> {
   const record = await versionRecord(org, tableId, number, t)
   if (record.version.status !== 'approved' && record.version.status !== 'retired') throw apiError(409, 'not-signed-off', 'Only a signed-off version can be exported with a signature.')
+  // a two-way table signs as format 3 (cells as [x, d, y]); one-way tables keep format 2
+  if ('cells' in record) return { format: SIGNED_FORMAT_V3, ...record, signedAt: new Date().toISOString(), keyId }
   return { format: SIGNED_FORMAT, ...record, signedAt: new Date().toISOString(), keyId }
 }
 
@@ -42,7 +44,7 @@ export async function startExport(event: H3Event, access: OrgAccess, tableId: st
   const version = await findVersion(access.org.id, tableId, number)
   if (version.status !== 'approved' && version.status !== 'retired') throw apiError(409, 'not-signed-off', 'Only a signed-off version can be exported with a signature.')
   await activeSigningKey(event, access.org.id)
-  const [values] = await useDb().query<{ n: number }>('SELECT count(*)::int AS n FROM version_fill_points WHERE version_id = :id', { replacements: { id: version.id }, type: QueryTypes.SELECT })
+  const [values] = await useDb().query<{ n: number }>('SELECT (SELECT count(*)::int FROM version_fill_points WHERE version_id = :id) + (SELECT count(*)::int FROM version_grid_fill_points WHERE version_id = :id) AS n', { replacements: { id: version.id }, type: QueryTypes.SELECT })
   const input: ExportRunInput = { tableId, number, origin: { requestId: event.context.requestId ?? null, ip: clientAddress(event) } }
   return startRun(access, { kind: 'export', runKey, heavy: values!.n > HEAVY_EXPORT_VALUES, input: input as never, total: 1 })
 }
@@ -91,7 +93,7 @@ export async function verifyUpload(event: H3Event, access: OrgAccess, fileName: 
 }
 
 function summary(c: AnySignedContent): NonNullable<ExportVerdictDto['signed']> {
-  return { tableId: c.table.id, tableName: c.table.name, version: c.version.number, approvedBy: c.approvedBy?.name ?? null, approvedAt: c.approvedAt, signedAt: c.signedAt, points: c.points.length, values: c.fill?.values.length ?? 0, format: c.format }
+  return { tableId: c.table.id, tableName: c.table.name, version: c.version.number, approvedBy: c.approvedBy?.name ?? null, approvedAt: c.approvedAt, signedAt: c.signedAt, points: 'cells' in c ? c.cells.length : c.points.length, values: c.fill?.values.length ?? 0, format: c.format }
 }
 
 /** The organisation's tables that have a signed-off version, as the read API lists them (only `tableIds` when given). */

@@ -3,7 +3,7 @@ import ExcelJS from 'exceljs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, DEMO, LARKSPUR, closeOwnerDb, multipartFile, ownerDb, postRefusable, signedIn } from './helpers'
 import { filledDraft, newTable } from './review-helpers'
-import { SHEET, readWorkbookCells, signBytes, canonicalBytes, keyIdOf, writeSignedWorkbook, storedSignedContent, type SignedContent } from '~~/server/lib/signing'
+import { SHEET, readWorkbookCells, signBytes, canonicalBytes, keyIdOf, writeSignedWorkbook, storedSignedContent, type SignedContentV2 } from '~~/server/lib/signing'
 import type { ExportVerdictDto } from '#shared/types/exports'
 
 let auditor: Client, analyst: Client, felix: Client
@@ -74,7 +74,7 @@ describe('signed export against the built server', () => {
 
   it('a workbook signed with a key the organisation never had is "unknown key"; a plain workbook is "not signed"', async () => {
     const file = await download(auditor, curve)
-    const content = storedSignedContent(await readWorkbookCells(file)) as SignedContent
+    const content = storedSignedContent(await readWorkbookCells(file)) as SignedContentV2
     const { publicKey, privateKey } = generateKeyPairSync('ed25519')
     const x = (publicKey.export({ format: 'jwk' }) as { x: string }).x
     const forged = { ...content, keyId: keyIdOf(x) }

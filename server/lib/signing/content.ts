@@ -10,6 +10,12 @@ import canonicalize from 'canonicalize'
 //   its own (anchor.ts).
 export const SIGNED_FORMAT_V1 = 'knotwork-signed-table/1'
 export const SIGNED_FORMAT = 'knotwork-signed-table/2'
+/**
+ * knotwork-signed-table/3 (issue 17): a two-way table. The table names its column axis and whether it has an ultimate
+ * column; the given cells and the fill's values are [x, d, y] triples (d null: the ultimate column); the sheets read as
+ * format 2's do, with a column for the second axis (readable-v3.ts). One-way tables keep format 2.
+ */
+export const SIGNED_FORMAT_V3 = 'knotwork-signed-table/3'
 
 export type Json = string | number | boolean | null | Json[] | { [key: string]: Json }
 export interface Person { name: string; email: string }
@@ -50,9 +56,19 @@ interface ContentCommon {
 }
 export interface SignedContentV1 extends ContentCommon { format: typeof SIGNED_FORMAT_V1; fill: SignedFillV1 | null }
 export interface SignedContentV2 extends ContentCommon { format: typeof SIGNED_FORMAT; fill: SignedFill | null }
-/** What new exports and the read API sign. */
-export type SignedContent = SignedContentV2
-export type AnySignedContent = SignedContentV1 | SignedContentV2
+/** [x, d, y] of a two-way table, canonical decimal strings; d null is the ultimate column. Sorted by x, then d, ultimate last. */
+export type Triple = [string, string | null, string]
+export interface SignedFillV3 extends Omit<SignedFill, 'values'> { values: Triple[] }
+export interface SignedContentV3 extends Omit<ContentCommon, 'points' | 'table'> {
+  format: typeof SIGNED_FORMAT_V3
+  table: ContentCommon['table'] & { shape: 'two-way'; colAxis: string; colAxisUnit: string; hasUltimate: boolean }
+  /** the given cells, per unit */
+  cells: Triple[]
+  fill: SignedFillV3 | null
+}
+/** What new exports and the read API sign: format 2 for a one-way table, format 3 for a two-way one. */
+export type SignedContent = SignedContentV2 | SignedContentV3
+export type AnySignedContent = SignedContentV1 | SignedContentV2 | SignedContentV3
 
 /** RFC 8785 (JSON Canonicalization Scheme) text of a JSON value, as UTF-8 bytes: what Ed25519 signs. */
 export function canonicalBytes(value: object): Buffer {

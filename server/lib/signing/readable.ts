@@ -17,10 +17,10 @@ import type { CellValue, SheetModel } from './workbook-model'
 export const SHEET_V2 = { filled: 'Filled values', given: 'Given points', about: 'About this table', signature: 'Signature' } as const
 export type ReadableRecord = Omit<SignedContentV2, 'format' | 'keyId' | 'signedAt'>
 
-interface Units { kind: TableKind, unit: ValueUnit, axis: Axis, axisUnit: AxisUnit }
-const unitsOf = (r: ReadableRecord): Units => ({ kind: r.table.kind as TableKind, unit: r.table.valueUnit as ValueUnit, axis: r.table.axis as Axis, axisUnit: r.table.axisUnit as AxisUnit })
+export interface Units { kind: TableKind, unit: ValueUnit, axis: Axis, axisUnit: AxisUnit }
+export const unitsOf = (r: Pick<ReadableRecord, 'table'>): Units => ({ kind: r.table.kind as TableKind, unit: r.table.valueUnit as ValueUnit, axis: r.table.axis as Axis, axisUnit: r.table.axisUnit as AxisUnit })
 /** An axis value as a number when the number reads back exactly, else as its exact text. */
-const axisCell = (x: string): CellValue => (String(Number(x)) === x ? Number(x) : x)
+export const axisCell = (x: string): CellValue => (String(Number(x)) === x ? Number(x) : x)
 
 export function pairHeader(u: Units): string[] {
   const value = valueHeading(u.kind, u.unit)
@@ -34,8 +34,8 @@ export function pairRows(pairs: Pair[], u: Units): CellValue[][] {
   })]
 }
 
-const who = (p: Person | null) => (p ? `${p.name} (${p.email})` : '—')
-const section = (title: string, rows: WordRow[]): CellValue[][] => [[], [title], ...rows.map(r => [r.label, r.value])]
+export const who = (p: Person | null) => (p ? `${p.name} (${p.email})` : '—')
+export const section = (title: string, rows: WordRow[]): CellValue[][] => [[], [title], ...rows.map(r => [r.label, r.value])]
 
 function fillRows(r: ReadableRecord): CellValue[][] {
   const f = r.fill
@@ -88,15 +88,20 @@ export function aboutRows(r: ReadableRecord, banner: string[], extra: WordRow[])
     ]),
     ...fillRows(r),
     ...checkAndMoneyRows(r, u),
-    ...section('People', [
-      { label: 'Made by', value: who(r.madeBy) },
-      { label: 'Submitted for a second check by', value: who(r.submittedBy) },
-      { label: 'Submitted at', value: formatUtc(r.submittedAt) },
-      { label: 'Signed off by', value: who(r.approvedBy) },
-      { label: 'Signed off at', value: formatUtc(r.approvedAt) },
-      ...extra,
-    ]),
+    ...peopleRows(r, extra),
   ]
+}
+
+/** Who made, submitted and signed off the version, then `extra` (the signing details): the end of every About sheet. */
+export function peopleRows(r: Pick<ReadableRecord, 'madeBy' | 'submittedBy' | 'submittedAt' | 'approvedBy' | 'approvedAt'>, extra: WordRow[]): CellValue[][] {
+  return section('People', [
+    { label: 'Made by', value: who(r.madeBy) },
+    { label: 'Submitted for a second check by', value: who(r.submittedBy) },
+    { label: 'Submitted at', value: formatUtc(r.submittedAt) },
+    { label: 'Signed off by', value: who(r.approvedBy) },
+    { label: 'Signed off at', value: formatUtc(r.approvedAt) },
+    ...extra,
+  ])
 }
 
 /** The three readable sheets, text cells escaped against formula injection. */

@@ -1,4 +1,4 @@
-import { SIGNED_FORMAT, SIGNED_FORMAT_V1, canonicalBytes, contentSha256, type AnySignedContent, type SignedContentV1, type SignedContentV2 } from './content'
+import { SIGNED_FORMAT, SIGNED_FORMAT_V1, SIGNED_FORMAT_V3, canonicalBytes, contentSha256, type AnySignedContent, type SignedContentV1, type SignedContentV2, type SignedContentV3 } from './content'
 import { headSignatureHolds, type SignedHead } from './anchor'
 import { unescapeText } from './escape'
 import { verifyBytes } from './keys'
@@ -108,7 +108,8 @@ export function verifyWorkbookCells(sheets: SheetCells, lookup: (keyId: string) 
     if (!signed || signed.format !== SIGNED_FORMAT_V1) return altered('The signature does not match the content in the file: the signature, the stored content or the sheets were changed.')
     model = workbookModel(signed, block(signed), canonicalBytes(signed).toString('utf8'))
   } else {
-    signed = holds(stored) && stored?.format === SIGNED_FORMAT ? stored : null
+    // format 2 (one-way) and 3 (two-way) share the Signature sheet; the stored content says which sheets it makes
+    signed = holds(stored) && (stored?.format === SIGNED_FORMAT || stored?.format === SIGNED_FORMAT_V3) ? stored : null
     if (!signed) return altered('The signature does not match the signed content stored on the Signature sheet: the signature or the stored content was changed.')
     const headText = joinedParts(sig, LABEL.headParts)
     if (headText !== null) {
@@ -116,7 +117,7 @@ export function verifyWorkbookCells(sheets: SheetCells, lookup: (keyId: string) 
       const hx = anchor.statement ? lookup(anchor.statement.keyId) : null
       if (!hx || !headSignatureHolds(anchor, hx)) return altered('The audit-trail head on the Signature sheet does not carry a valid signature: it was changed.')
     }
-    model = workbookModelV2(signed as SignedContentV2, block(signed), canonicalBytes(signed).toString('utf8'), anchor)
+    model = workbookModelV2(signed as SignedContentV2 | SignedContentV3, block(signed), canonicalBytes(signed).toString('utf8'), anchor)
   }
   const differences = diffCells(new Map(model.map(s => [s.name, s.rows])), sheets)
   if (!differences.length) return { kind: 'genuine', keyId, content: signed, anchor }

@@ -1,5 +1,5 @@
 import ExcelJS from 'exceljs'
-import { canonicalBytes, contentSha256, type Pair, type SignedContentV1, type SignedContentV2 } from './content'
+import { canonicalBytes, contentSha256, type Pair, type SignedContentV1, type SignedContentV2, type SignedContentV3 } from './content'
 import type { SignedHead } from './anchor'
 import { unescapeText } from './escape'
 import { fromRows, type JsonRow, type RowType } from './json-rows'
@@ -34,7 +34,7 @@ export async function writeWorkbook(sheets: SheetModel[], at: string): Promise<B
 }
 
 /** Writes a signed workbook of the current format: readable sheets, then the signature and the audit-trail head. */
-export async function writeSignedWorkbook(content: SignedContentV2, block: Omit<SignatureBlock, 'sha256'>, anchor: SignedHead | null): Promise<Buffer> {
+export async function writeSignedWorkbook(content: SignedContentV2 | SignedContentV3, block: Omit<SignatureBlock, 'sha256'>, anchor: SignedHead | null): Promise<Buffer> {
   const canonical = canonicalBytes(content).toString('utf8')
   return writeWorkbook(workbookModelV2(content, { ...block, sha256: contentSha256(content) }, canonical, anchor), content.signedAt)
 }

@@ -1,6 +1,7 @@
 import { formatUtc } from '#shared/plain-text'
 import { HEAD_FORMAT, type SignedHead } from './anchor'
-import { SIGNED_FORMAT, canonicalBytes, type SignedContentV2 } from './content'
+import { canonicalBytes, type SignedContentV2, type SignedContentV3 } from './content'
+import { readableSheetsV3 } from './readable-v3'
 import { SHEET_V2, escaped, readableSheets } from './readable'
 import type { CellValue, SheetModel, SignatureBlock } from './workbook-model'
 
@@ -36,12 +37,13 @@ function headRows(anchor: SignedHead | null): CellValue[][] {
   ]
 }
 
-export function signatureRowsV2(content: SignedContentV2, block: SignatureBlock, canonical: string, anchor: SignedHead | null): CellValue[][] {
+/** The Signature sheet of formats 2 and 3 (the format row names the content's own format). */
+export function signatureRowsV2(content: SignedContentV2 | SignedContentV3, block: SignatureBlock, canonical: string, anchor: SignedHead | null): CellValue[][] {
   const slug = content.organisation.slug
   const parts = chunks(canonical)
   return [
     ['Signature of this workbook', null],
-    [LABEL.format, SIGNED_FORMAT],
+    [LABEL.format, content.format],
     ['Algorithm', 'Ed25519 (RFC 8032), pure EdDSA over the canonical bytes (no pre-hash)'],
     ['Canonicalisation', 'RFC 8785 JSON Canonicalization Scheme, UTF-8, of the content object stored below in parts. The other sheets are derived from it; a check rebuilds them and compares every cell.'],
     ['Content SHA-256', block.sha256],
@@ -56,13 +58,13 @@ export function signatureRowsV2(content: SignedContentV2, block: SignatureBlock,
   ]
 }
 
-/** Every sheet and cell of a signed workbook of format 2. */
-export function workbookModelV2(content: SignedContentV2, block: SignatureBlock, canonical: string, anchor: SignedHead | null): SheetModel[] {
+/** Every sheet and cell of a signed workbook of format 2 (a one-way table) or 3 (a two-way table: readable-v3.ts). */
+export function workbookModelV2(content: SignedContentV2 | SignedContentV3, block: SignatureBlock, canonical: string, anchor: SignedHead | null): SheetModel[] {
   const state = content.version.status === 'retired' ? ' It has since been withdrawn or superseded: it was no longer in force when this file was made.' : ''
   const banner = [`Signed off by ${content.approvedBy?.name ?? '—'} on ${formatUtc(content.approvedAt)}; this file was signed on ${formatUtc(content.signedAt)}.${state} The Signature sheet says how to check it.`]
   const extra = [{ label: 'File signed at', value: formatUtc(content.signedAt) }, { label: 'Signing key id', value: content.keyId }]
   return [
-    ...readableSheets(content, banner, extra),
+    ...(content.format === 'knotwork-signed-table/3' ? readableSheetsV3(content, banner, extra) : readableSheets(content, banner, extra)),
     ...escaped([{ name: SHEET_V2.signature, rows: signatureRowsV2(content, block, canonical, anchor), widths: [40, 110] }]),
   ]
 }

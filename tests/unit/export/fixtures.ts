@@ -1,5 +1,5 @@
 import fc from 'fast-check'
-import { generateSigningKey, keyIdOf, signBytes, canonicalBytes, signHead, HEAD_FORMAT, SIGNED_FORMAT, type Pair, type SignedContent, type SignedHead } from '~~/server/lib/signing'
+import { generateSigningKey, keyIdOf, signBytes, canonicalBytes, signHead, HEAD_FORMAT, SIGNED_FORMAT, type Pair, type SignedContent, type SignedContentV2, type SignedHead } from '~~/server/lib/signing'
 import { createPrivateKey } from 'node:crypto'
 
 /** One organisation key for a test run. */
@@ -34,7 +34,7 @@ export const arbitraryContent = (kid: string) => fc.record({
   precision: fc.integer({ min: 10, max: 60 }),
   options: fc.dictionary(fc.constantFrom('bc', '0', 'slope/left', 'a~b', 'k[1]'), fc.oneof(risky, fc.integer(), fc.boolean(), fc.constant(null))),
   units: fc.constantFrom({ kind: 'mortality', valueUnit: 'per-mille', axis: 'age' }, { kind: 'lapse', valueUnit: 'percent', axis: 'policy-year' }, { kind: 'spot-rate', valueUnit: 'basis-points', axis: 'term' }, { kind: 'salary', valueUnit: 'per-unit', axis: 'age' }),
-}).map(({ points, values, name, rationale, person, hasFill, precision, options, units: { kind, valueUnit, axis } }): SignedContent => ({
+}).map(({ points, values, name, rationale, person, hasFill, precision, options, units: { kind, valueUnit, axis } }): SignedContentV2 => ({
   format: SIGNED_FORMAT,
   organisation: { slug: 'test-org', name: 'Test Org' },
   table: { id: '00000000-0000-4000-8000-000000000001', name, kind, axis, axisUnit: 'years', valueUnit },
