@@ -84,3 +84,6 @@ export interface ImportPreviewDto {
 }
 
 export interface ImportCommitDto { tables: { id: string; name: string; versionId: string; number: number }[] }
+
+/** A sheet that reads as a matrix (issue 17): its header row, row-axis column, value columns, guessed kind and unit. */
+export interface MatrixSuggestion { headerRow: number, axisColumn: number, columns: number[], kind: TableKind, valueUnit: ValueUnit, unitReason: string | null, hasUltimate: boolean }

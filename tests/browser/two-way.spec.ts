@@ -71,3 +71,25 @@ test('an analyst edits a select table as a matrix, compares fills on the two-way
   await expect(page.getByTestId('saved-fill')).toBeVisible()
   await shot(page, 'two-way-filled')
 })
+
+test('an analyst imports the demo select workbook as a two-way table through the wizard', async ({ page }) => {
+  const name = `Select import ${Math.random().toString(36).slice(2, 6)}`
+  await signIn(page, PEOPLE.analyst)
+  await page.getByTestId('nav-import').click()
+  await page.getByTestId('import-file').setInputFiles('public/demo/larkspur-select-study-2026.xlsx')
+  await page.waitForURL(/\/imports\/[0-9a-f-]{36}/)
+  // the sheet reads as a matrix: durations 0 to 4 and an ultimate column, per mille from the notes
+  const panel = page.getByTestId('matrix-panel')
+  await expect(panel).toContainText('the last an ultimate column')
+  await expect(page.getByTestId('matrix-unit')).toHaveValue('per-mille')
+  await page.getByTestId('matrix-name').fill(name)
+  await page.getByTestId('matrix-check').click()
+  await expect(page.getByTestId('matrix-counts')).toHaveText('41 rows · 54 given cells · 192 to fill')
+  await expect(page.getByTestId('matrix-errors')).toHaveText('0 blocking')
+  await shot(page, 'two-way-import')
+  await page.getByTestId('matrix-create').click()
+  await page.waitForURL(/\/tables\/[0-9a-f-]{36}/)
+  await expect(page.getByRole('heading', { name })).toBeVisible()
+  await expect(page.getByTestId('cell-40-ult')).toHaveValue('2.3619')
+  await expect(page.getByTestId('cell-41-ult')).toHaveAttribute('placeholder', 'to fill')
+})

@@ -29,6 +29,10 @@ describe('matrix headings', () => {
   it('suggests the header row under the notes, the columns and per mille from the notes', () => {
     expect(suggestMatrix(SELECT)).toMatchObject({ headerRow: 2, axisColumn: 0, columns: [1, 2, 3], kind: 'mortality', valueUnit: 'per-mille', hasUltimate: true })
   })
+
+  it('does not take a one-way sheet (value columns with names, rows of numbers) for a matrix', () => {
+    expect(suggestMatrix(sheet([['Notes'], ['Age', 'Male q_x (%)', 'Female q_x (%)'], ['55', '0.5', '0.4'], ['60', '0.8', '0.6']]))).toBeNull()
+  })
 })
 
 describe('validateMatrix', () => {

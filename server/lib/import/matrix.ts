@@ -1,8 +1,7 @@
 import { canonicalDecimal, cmpDecimal, parseNumberText, toPerUnit } from '#shared/decimal-text'
 import { checkAxis, checkValue } from '#shared/table-rules'
 import type { ImportMatrixMapping } from '#shared/schemas/import-matrix'
-import type { CellDto, ImportFinding } from '#shared/types/tables'
-import type { TableKind, ValueUnit } from '#shared/tables'
+import type { CellDto, ImportFinding, MatrixSuggestion } from '#shared/types/tables'
 import { sortCells } from '../points-hash'
 import { cellAddress, columnLetter, guessKind, guessUnit } from './analyse'
 import type { StoredSheet } from './stored-sheet'
@@ -21,12 +20,14 @@ export function headingValue(text: string | null | undefined): string | 'ult' | 
   return m ? canonicalDecimal(m[1]!) : null
 }
 
-export interface MatrixSuggestion { headerRow: number, axisColumn: number, columns: number[], kind: TableKind, valueUnit: ValueUnit, unitReason: string | null, hasUltimate: boolean }
+export type { MatrixSuggestion }
 
-/** The header row is the first (of 40) whose cells right of column A mostly name durations; the unit from headings and values. */
+/** The header row is the first (of 40) with a non-number in column A and two or more durations or "Ult" to its right; the unit from the notes and values. */
 export function suggestMatrix(sheet: StoredSheet): MatrixSuggestion | null {
   for (let r = 0; r < Math.min(sheet.rows.length, 40); r += 1) {
     const row = sheet.rows[r] ?? []
+    // a header's first cell names the rows ("Age at entry") or is empty; a number there means a row of data
+    if (row[0] && parseNumberText(row[0]).ok) continue
     const columns = row.map((t, c) => (c > 0 && headingValue(t) !== null ? c : -1)).filter(c => c > 0)
     if (columns.length < 2) continue
     const notes = sheet.rows.slice(0, r + 1).flat().filter((t): t is string => !!t).join(' ')
