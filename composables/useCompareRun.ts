@@ -3,6 +3,7 @@ import type { CompareResponseDto } from '#shared/types/fills'
 
 /** Runs a comparison with a cancel switch and a running clock. */
 export function useCompareRun(url: () => string) {
+  const api = useApi()
   const running = ref(false)
   const elapsedMs = ref(0)
   const error = ref<string | null>(null)
@@ -23,7 +24,7 @@ export function useCompareRun(url: () => string) {
     poller = setInterval(async () => {
       if (asking || signal.aborted) return
       asking = true
-      try { progress.value = await $fetch<{ done: number, total: number }>(progressUrl, { signal }) }
+      try { progress.value = await api<{ done: number, total: number }>(progressUrl, { signal }) }
       catch { /* not started yet, or finished: the bar keeps its last state */ }
       finally { asking = false }
     }, 400)
@@ -45,7 +46,7 @@ export function useCompareRun(url: () => string) {
     timer = setInterval(() => { elapsedMs.value = performance.now() - begun }, 100)
     watchProgress(runId, controller.signal)
     try {
-      const answer = await $fetch<CompareResponseDto>(url(), { method: 'POST', body: { ...body, runId }, signal: controller.signal })
+      const answer = await api<CompareResponseDto>(url(), { method: 'POST', body: { ...body, runId }, signal: controller.signal })
       if (id === started.value) {
         answered.value = id
         response.value = answer
@@ -69,7 +70,7 @@ export function useCompareRun(url: () => string) {
   /** Closing the connection cancels the run; the explicit cancel also reaches it through a proxy that keeps connections open. */
   function cancel() {
     controller?.abort()
-    if (runUrl) $fetch(runUrl, { method: 'DELETE' }).catch(() => {})
+    if (runUrl) api(runUrl, { method: 'DELETE' }).catch(() => {})
   }
   onBeforeUnmount(() => { controller?.abort(); clearInterval(timer); clearInterval(poller) })
   return { running, elapsedMs, error, response, started, answered, progress, run, cancel }
