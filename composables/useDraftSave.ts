@@ -4,25 +4,9 @@ import type { ValueUnit } from '#shared/tables'
 import type { VersionDto } from '#shared/types/tables'
 import type { GridRow } from './usePointsGrid'
 
-export interface LockState { lockVersion: Ref<number>, conflict: Ref<boolean>, failure: Ref<string | null>, saved: Ref<string | null>, saving: Ref<boolean> }
-
-/** PUTs a draft's points or cells under its lock; a 409 draft-conflict sets `conflict` (what is on screen is kept). */
-export async function putUnderLock(url: string, body: object, s: LockState): Promise<VersionDto | null> {
-  s.saving.value = true
-  try {
-    const v = await $fetch<VersionDto>(url, { method: 'PUT', body })
-    s.lockVersion.value = v.lockVersion
-    s.saved.value = `Saved at ${new Date().toLocaleTimeString('en-GB')}.`
-    return v
-  } catch (e) {
-    s.conflict.value = apiErrorCode(e) === 'draft-conflict'
-    s.failure.value = apiErrorMessage(e)
-    return null
-  } finally { s.saving.value = false }
-}
-
 /** Grid rows <-> stored points, and saving a draft under its optimistic lock. */
 export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
+  const api = useApi()
   const rows = ref<GridRow[]>([])
   const lockVersion = ref(0)
   const conflict = ref(false)
@@ -52,11 +36,11 @@ export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
     } catch (e) { failure.value = (e as Error).message; return null }
     const check = savePointsSchema.safeParse(body)
     if (!check.success) { failure.value = check.error.issues[0]!.message; return null }
-    return putUnderLock(`${url.value}/points`, body, { lockVersion, conflict, failure, saved, saving })
+    return putUnderLock(api, `${url.value}/points`, body, { lockVersion, conflict, failure, saved, saving })
   }
   /** After a 409: take the newest lock and save what is on screen over it (nothing typed is lost). */
   async function saveMineOnTop() {
-    const latest = await $fetch<VersionDto>(url.value)
+    const latest = await api<VersionDto>(url.value)
     lockVersion.value = latest.lockVersion
     conflict.value = false
     return save()

@@ -14,6 +14,7 @@ function axisValues(given: string[]): string[] {
 
 /** A two-way draft as a matrix of display text (in the table's unit), saved as cells under its optimistic lock. */
 export function useMatrixGrid(url: Ref<string>, unit: Ref<ValueUnit>) {
+  const api = useApi()
   const rows = ref<string[]>([])
   const cols = ref<(string | null)[]>([])
   const values = ref<Record<string, string>>({})
@@ -50,7 +51,7 @@ export function useMatrixGrid(url: Ref<string>, unit: Ref<ValueUnit>) {
     try { body = { lockVersion: lockVersion.value, cells: cells() } } catch (e) { failure.value = (e as Error).message; return null }
     const check = saveCellsSchema.safeParse(body)
     if (!check.success) { failure.value = check.error.issues[0]!.message; return null }
-    return putUnderLock(`${url.value}/cells`, body, { lockVersion, conflict, failure, saved, saving })
+    return putUnderLock(api, `${url.value}/cells`, body, { lockVersion, conflict, failure, saved, saving })
   }
   /** A block copied from a spreadsheet (tab-separated lines), written from cell (r, c) right and down. */
   function paste(r: number, c: number, text: string): string {

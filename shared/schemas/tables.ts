@@ -2,7 +2,7 @@ import { z } from '#shared/zod'
 import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFitsKind } from '../tables'
 import { MAX_SIGNIFICANT_DIGITS, canonicalDecimal, parseNumberText } from '../decimal-text'
 
-// Shared by the points grid (vee-validate through composables/zodForm.ts) and the handlers.
+// Shared by the points grid (vee-validate through utils/zod-form.ts) and the handlers.
 export const decimalText = z.string().trim()
   .min(1, { message: 'Enter a number' })
   .max(60, { message: `Use at most ${MAX_SIGNIFICANT_DIGITS} significant digits` })

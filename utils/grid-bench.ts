@@ -1,5 +1,6 @@
+// The two-way bench's settings and the request they make (pure helpers, auto-imported).
 import type { MethodListing } from '#shared/engine/contract'
-import type { GridCompareDto, SavedGridFillDto } from '#shared/types/grid-fills'
+import type { SavedGridFillDto } from '#shared/types/grid-fills'
 import type { GridCompareInput } from '#shared/schemas/grid-fills'
 import type { CellDto } from '#shared/types/tables'
 
@@ -39,21 +40,4 @@ export function gridCompareBody(s: GridBenchSettings, methods: MethodListing[]):
     choices: s.choices.map(c => ({ x: { method: c.x as never }, d: { method: c.d as never }, label: `${words(c.x)} × ${words(c.d)}` })),
     money: ages.length ? { ages, ...(interest ? { interest } : {}) } : undefined,
   }
-}
-
-/** Runs the comparison and keeps the request that produced what is on screen (a save names exactly that). */
-export function useGridCompare(url: () => string) {
-  const result = shallowRef<GridCompareDto | null>(null)
-  const shown = shallowRef<GridCompareInput | null>(null)
-  const running = ref(false)
-  const error = ref<string | null>(null)
-  async function run(body: GridCompareInput) {
-    running.value = true
-    error.value = null
-    try {
-      result.value = await $fetch<GridCompareDto>(url(), { method: 'POST', body })
-      shown.value = body
-    } catch (e) { error.value = apiErrorMessage(e) } finally { running.value = false }
-  }
-  return { result, shown, running, error, run }
 }
