@@ -1,6 +1,6 @@
 // The checks of a fill (docs/domain.md#checks) in plain words, with values in the table's unit: one wording for the fill
 // bench, the table page and the signed workbook. Each row says what the check means and why it matters.
-import type { Diagnostics, Span } from './engine/contract'
+import type { ClosureReport, Diagnostics, Span } from './engine/contract'
 import { UNIT_SCALE } from './decimal-text'
 import type { TableKind, ValueUnit } from './tables'
 
@@ -92,4 +92,22 @@ export function checkRows(kind: TableKind, unit: ValueUnit = 'per-unit'): CheckR
 /** A check's verdict, or a plain "not recorded" for fills saved before the check existed (older diagnostics). */
 export function verdictOf(row: CheckRow, d: Diagnostics): { good: boolean, text: string } | null {
   try { return row.verdict(d) } catch { return null }
+}
+
+const LAW_NAMES: Record<ClosureReport['law'], string> = { gompertz: 'Gompertz law', kannisto: 'Kannisto law' }
+
+/**
+ * The old-age closure of a fill in words (not one of checkRows: that list is part of signed format 2). Good when the law
+ * fits the oldest given ages within 5 % on the hazard scale and meets the last given age within a tenth of its q.
+ */
+export function closureVerdict(c: ClosureReport, unit: ValueUnit = 'per-unit'): { good: boolean, text: string } {
+  const misfit = Number(c.maxLogHazardResidual)
+  const step = Number(c.lawMinusGivenAtLastAge)
+  const percent = Math.abs(Math.expm1(misfit)) * 100
+  const fit = misfit === 0 ? 'fits them exactly' : percent < 0.01 ? 'fits them within 0.01 % of the hazard' : `fits them within ${short(percent)} % of the hazard`
+  const join = step === 0 ? 'meets the last given age exactly' : `is ${inUnit(Math.abs(step), unit)} ${step > 0 ? 'above' : 'below'} the given q at the last given age`
+  return {
+    good: misfit <= 0.05,
+    text: `${LAW_NAMES[c.law]} fitted to ${plural(c.fitAges, 'given age')} from ${fx(c.fitFrom)} to ${fx(c.fitTo)}: it ${fit} and ${join}; q reaches 1 at age ${fx(c.terminalAge)}.`,
+  }
 }

@@ -1,5 +1,6 @@
 import type { FillRequest, TableKind } from '../engine/types'
 import type { CompareInput, MethodChoice } from '#shared/schemas/fills'
+import { isClosureRule } from '#shared/fills'
 
 export interface FillBase { knots: { x: string, y: string }[], kind: TableKind }
 
@@ -13,6 +14,8 @@ export function buildFillRequest(base: FillBase, settings: Omit<CompareInput, 'm
     // log-linear works on ln y by construction; the engine refuses another transform on top of it
     transform: choice.transform ?? (choice.method === 'log-linear' ? 'none' : settings.transform),
     extrapolation: settings.extrapolation,
+    // the closure's options go to the engine only with a closure rule (other rules take none)
+    ...(isClosureRule(settings.extrapolation) && settings.extrapolationOptions ? { extrapolationOptions: { ...settings.extrapolationOptions } } : {}),
     // a fraction step (1/12 for months) goes to the engine as it is: the engine resolves it (and records it in the spec)
     grid: { from: settings.grid.from, to: settings.grid.to, step: settings.grid.step },
     ...(settings.precision ? { precision: settings.precision } : {}),
