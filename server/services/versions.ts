@@ -2,6 +2,7 @@ import { QueryTypes } from 'sequelize'
 import type { H3Event } from 'h3'
 import type { OrgAccess } from '../utils/auth'
 import type { TableDto, VersionDto, VersionSummaryDto } from '#shared/types/tables'
+import type { GraduationRecord } from '#shared/types/graduation'
 import type { SavePointsInput, TableUpdateInput } from '#shared/schemas/tables'
 import { checkAxis, checkValue } from '#shared/table-rules'
 import { UNIT_KIND_MESSAGE, unitFitsKind } from '#shared/tables'
@@ -14,7 +15,8 @@ import { sortPoints } from '../lib/import/validate'
 const SUMMARY_SQL = `
   SELECT v.id, v.number, v.status, v.notes, v.content_hash, v.lock_version, v.created_at, v.updated_at,
          u.id AS author_id, u.name AS author_name,
-         (SELECT count(*)::int FROM version_points p WHERE p.version_id = v.id) AS point_count
+         (SELECT count(*)::int FROM version_points p WHERE p.version_id = v.id) AS point_count,
+         v.graduation, (SELECT g.name FROM users g WHERE g.id::text = v.graduation->>'by') AS graduated_by_name
   FROM table_versions v LEFT JOIN users u ON u.id = v.author_id
   WHERE v.org_id = :orgId AND v.table_id = :tableId`
 
@@ -30,7 +32,14 @@ const toSummary = (r: Row): VersionSummaryDto => ({
   pointCount: r.point_count as number,
   createdAt: new Date(r.created_at as string).toISOString(),
   updatedAt: new Date(r.updated_at as string).toISOString(),
+  graduation: graduationRecord(r),
 })
+
+/** How the version was graduated (the graduate step), or null. */
+function graduationRecord(r: Row): GraduationRecord | null {
+  const g = r.graduation as { fromNumber: number, spec: GraduationRecord['spec'], rationale: string, at: string } | null
+  return g ? { fromNumber: g.fromNumber, spec: g.spec, rationale: g.rationale, byName: (r.graduated_by_name as string | null) ?? null, at: g.at } : null
+}
 
 export async function listVersions(orgId: string, tableId: string): Promise<VersionSummaryDto[]> {
   const rows = await useDb().query<Row>(`${SUMMARY_SQL} ORDER BY v.number DESC`, { replacements: { orgId, tableId }, type: QueryTypes.SELECT })

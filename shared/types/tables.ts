@@ -1,3 +1,4 @@
+import type { GraduationRecord } from './graduation'
 import type { Axis, AxisUnit, TableKind, ValueUnit, VersionStatus } from '../tables'
 
 export interface PointDto { x: string; y: string } // stored per-unit decimals as strings
@@ -13,6 +14,8 @@ export interface VersionSummaryDto {
   pointCount: number
   createdAt: string
   updatedAt: string
+  /** Made by the graduate step: from which version, how (the engine's spec) and why. */
+  graduation: GraduationRecord | null
 }
 
 export interface VersionDto extends VersionSummaryDto { points: PointDto[] }
