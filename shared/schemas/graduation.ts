@@ -1,7 +1,11 @@
 import { z } from '#shared/zod'
 import { MIN_RATIONALE } from '../fills'
+import type { TableKind } from '../tables'
 
 // The graduate step (Whittaker-Henderson): the settings a person tries, then the same settings made a new working draft.
+
+/** Kinds whose values are rates estimated from experience; a curve is fitted to prices, not graduated. */
+export const GRADUATED_KINDS: readonly TableKind[] = ['mortality', 'lapse', 'salary', 'other']
 export const GRADUATION_ORDERS = [1, 2, 3, 4, 5, 6] as const
 export const DEFAULT_GRADUATION = { order: 3, smoothing: '100', digits: 10 } as const
 
