@@ -7,7 +7,7 @@ import { runTask } from '../lib/work/pool'
 import { pointsContentHash } from '../lib/points-hash'
 import type { OrgAccess } from '../utils/auth'
 import { checkValue } from '#shared/table-rules'
-import type { GraduatedDraftInput, GraduationSettings } from '#shared/schemas/graduation'
+import { GRADUATED_KINDS, type GraduatedDraftInput, type GraduationSettings } from '#shared/schemas/graduation'
 import type { GraduationPreviewDto } from '#shared/types/graduation'
 import type { VersionDto } from '#shared/types/tables'
 import { findTable, findVersion } from './tables'
@@ -17,9 +17,6 @@ import { getVersion } from './versions'
 // The graduate step: Whittaker-Henderson graduation of a version's crude rates, shown with its fit tests before anything
 // is stored, then (on an explicit request with reasons) made a new working draft. The engine runs in the worker pool.
 
-/** Kinds whose values are rates estimated from experience; a curve is fitted to prices, not graduated. */
-const GRADUATED_KINDS = ['mortality', 'lapse', 'salary', 'other'] as const
-
 function engineFailure(error: unknown): never {
   if (error instanceof EngineError) throw apiError(400, 'engine-refused', error.message, { engineCode: error.code, point: error.point })
   throw error
@@ -27,7 +24,7 @@ function engineFailure(error: unknown): never {
 
 async function graduationOf(access: OrgAccess, tableId: string, number: number, input: GraduationSettings, signal?: AbortSignal) {
   const table = await findTable(access.org.id, tableId)
-  if (!(GRADUATED_KINDS as readonly string[]).includes(table.kind)) {
+  if (!GRADUATED_KINDS.includes(table.kind)) {
     throw apiError(400, 'not-graduated-kind', 'Graduation smooths rates estimated from experience (mortality, lapse, salary); a curve is not graduated.')
   }
   const version = await findVersion(access.org.id, tableId, number)

@@ -68,7 +68,23 @@ export interface ImportSheetDto {
   headerGuess: number
 }
 
+/** An axis of bands ("55-59") found on import: what was found, the person's answer, and each band's total kept after a split. */
+export interface BandSummary {
+  count: number
+  first: string
+  last: string
+  /** Widths of the bands in whole years (one width expected). */
+  widths: number[]
+  answer: { values: 'totals' | 'rates', split: 'sprague' | 'beers' | 'karup-king' } | null
+  /** Significant digits of each band's total that a split keeps. */
+  digits: number
+  /** Per band and column: the total, the sum of its single-year values (added up again exactly), and whether they agree. */
+  checks: { column: string, band: string, total: string, sum: string, kept: boolean }[]
+}
+
 export interface ImportPreviewDto {
+  /** The axis holds bands (null otherwise). */
+  bands: BandSummary | null
   findings: ImportFinding[]
   errors: number
   warnings: number
