@@ -13,9 +13,11 @@ import { runInNewContext } from 'node:vm'
 import Decimal from 'decimal.js'
 import { computeDiagnostics } from '../server/engine/diagnostics'
 import { computeMoney } from '../server/engine/money'
-import { fillCore } from '../server/engine/pipeline'
+import { evaluateAscending } from '../server/engine/evaluate'
+import { fill2d, fill2dCore } from '../server/engine/fill2d'
+import { fillCore, fitRequest } from '../server/engine/pipeline'
 import { fill, graduate, split } from '../server/engine'
-import type { FillRequest, MethodId, TransformId } from '../server/engine/types'
+import type { Fill2DRequest, FillRequest, Knot2D, MethodId, TransformId } from '../server/engine/types'
 
 const RUNS = 9
 const KNOTS = 121
@@ -115,6 +117,53 @@ function row(method: MethodId, transform: TransformId, runs: number, withChecks:
 }
 for (const method of methods) row(method, 'none', RUNS, true)
 for (const transform of ['log', 'logit', 'cumulative-hazard'] as TransformId[]) row('cubic-natural', transform, 3, false)
+
+// Curve methods and the two-way fill (issue 16). Same knots read as spot rates (annual unless said), same grid.
+const ratioRow = (label: string, detail: string, t: { ms: number, baseline: number, msMin: number, baselineMin: number }, points: number, checks = '-') => {
+  // the baseline is timed on N points; a row with another number of points is compared per point
+  const scale = points / N
+  rows.push([label, detail, `${t.ms.toFixed(1)} (${t.msMin.toFixed(1)})`, Math.round(points / (t.ms / 1000)).toLocaleString('en-GB'),
+    `${(t.baseline * scale).toFixed(1)} (${(t.baselineMin * scale).toFixed(1)})`,
+    `${(t.ms / (t.baseline * scale)).toFixed(2)} (${(t.msMin / (t.baselineMin * scale)).toFixed(2)})`, checks])
+}
+const curveRow = (label: string, detail: string, request: FillRequest, runs: number) => {
+  const t = timeAgainstBaseline(() => fillCore(request), runs)
+  const core = fillCore(request)
+  ratioRow(label, detail, t, N, time(() => { computeDiagnostics(core); computeMoney(core) }, 1).toFixed(1))
+}
+const spot: FillRequest = { ...base, method: 'monotone-convex', kind: 'spot-rate' }
+curveRow('monotone-convex', 'ln P, spot annual', spot, RUNS)
+curveRow('monotone-convex', 'ln P, spot contin.', { ...spot, compounding: 'continuous' }, RUNS)
+const factors = knots.map(k => ({ x: k.x, y: new D(k.y).plus(1).pow(new D(k.x).neg()).toSD(12).toString() }))
+curveRow('monotone-convex', 'ln P, disc. factor', { ...spot, knots: factors, kind: 'discount-factor' }, RUNS)
+{
+  // the method's own work: fit and the values of ln P on the grid, without mapping back to rates
+  const fitted = fitRequest(spot)
+  const { xs, uniform } = fitted.points
+  const t = timeAgainstBaseline(() => evaluateAscending(fitRequest(spot).pp, xs, 'error', fitted.spec.workingPrecision, uniform), RUNS)
+  ratioRow('monotone-convex', 'ln P values only', t, N)
+}
+const sw: FillRequest = { ...spot, method: 'smith-wilson', options: { ufr: '0.035', alpha: '0.1' }, extrapolation: 'method' }
+curveRow('smith-wilson', 'alpha 0.1, 121 terms', sw, 3)
+{
+  // calibration alone on a curve of 20 annual terms (auto alpha: about 20 solves of the Wilson system)
+  const twenty = { ...sw, knots: knots.filter((_, i) => i > 0 && i % 6 === 0).slice(0, 20), options: { ufr: '0.035' } }
+  const t = time(() => fitRequest(twenty, null), 3)
+  rows.push(['smith-wilson', 'auto alpha, 20 terms: fit', t.toFixed(1), '-', '-', '-', '-'])
+}
+{
+  // two-way: knots every 7 in x (0..119, 18 values) and every 4 in d (0..24, 7 values), filled to 120 x 25 = 3,000 points
+  const knots2: Knot2D[] = []
+  for (let x = 0; x <= 119; x += 7) {
+    for (let d = 0; d <= 24; d += 4) knots2.push({ x: String(x), d: String(d), y: new D('0.0004').times(new D(x).div(12).exp()).times(new D(1).minus(new D(-d).div(5).exp().times('0.4'))).toSD(8).toString() })
+  }
+  for (const method of ['cubic-not-a-knot', 'linear', 'pchip'] as MethodId[]) {
+    const request: Fill2DRequest = { knots: knots2, method, grid: { x: { from: '0', to: '119', step: '1' }, d: { from: '0', to: '24', step: '1' } }, precision: 40 }
+    const t = timeAgainstBaseline(() => fill2dCore(request), RUNS)
+    ratioRow(`fill2d ${method}`, '18x7 -> 120x25', t, 3000, time(() => fill2d(request), 3).toFixed(1) + ' (all)')
+  }
+}
+
 // Graduation of 100 ages (Whittaker-Henderson, order 3) from invented deaths and exposures; split of 20 five-year groups;
 // old-age closure (a fill of 17 five-year ages to every age up to 120 with the law fitted above age 100).
 const gradPoints = Array.from({ length: 100 }, (_, i) => {

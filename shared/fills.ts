@@ -11,6 +11,7 @@ export const EXTRAPOLATION_LABELS: Record<ExtrapolationRule, string> = {
   linear: 'Extend the end piece as a straight line',
   gompertz: 'Close old ages with a fitted Gompertz law (mortality)',
   kannisto: 'Close old ages with a fitted Kannisto law (mortality)',
+  method: 'Let the method carry on by its own rule',
 }
 
 /** The extrapolation rules offered for a table of this kind (the engine refuses the others). */

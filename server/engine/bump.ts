@@ -24,8 +24,10 @@ export function bumpReach(core: CoreFill): BumpReport | null {
     method: spec.method,
     options: spec.options,
     transform: spec.transform,
-    extrapolation: 'flat',
+    // the probes lie inside the knots: the rule only has to be one the method accepts
+    extrapolation: spec.extrapolation,
     kind: spec.kind,
+    ...(spec.compounding ? { compounding: spec.compounding } : {}),
     precision: spec.precision,
     at: ['0'],
   }

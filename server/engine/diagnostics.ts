@@ -1,9 +1,10 @@
 import { roundTo, sign, type Dec } from './decimal'
 import { bumpReach } from './bump'
+import { intensityOf, rateInDomain, rateOfIntensityExact } from './compounding'
 import { evaluateValues, type CoreFill } from './pipeline'
 import { hornerDerivative, type PiecewisePolynomial } from './piecewise'
 import { FLOAT_TINY, UNIT_ROUNDOFF as u } from './precision'
-import type { CurvatureReport, Diagnostics, ForwardReport, Located, MonotonicityReport, RangeReport, Span, TableKind } from './types'
+import type { Compounding, CurvatureReport, Diagnostics, ForwardReport, Located, MonotonicityReport, RangeReport, Span, TableKind } from './types'
 
 const LIST_LIMIT = 20
 
@@ -22,9 +23,10 @@ export function computeDiagnostics(core: CoreFill): Diagnostics {
     roughness: roughness(ys, P),
     monotonicity: monotonicity(core.knots.y, xs, ys),
     outOfRange: outOfRange(core.spec.kind, xs, ys),
-    forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P) : null,
+    forwards: core.spec.kind === 'spot-rate' || core.spec.kind === 'discount-factor' ? forwards(core.spec.kind, xs, ys, P, core.spec.compounding ?? 'annual') : null,
     closure: core.closure?.report ?? null,
     bump: bumpReach(core),
+    ...(core.pp.closedForm?.convergence ? { convergence: core.pp.closedForm.convergence() } : {}),
     notes: [...core.notes, ...(core.def.notes?.(core.knots.x, xs) ?? []), ...extrapolationNotes(core)],
   }
 }
@@ -66,6 +68,14 @@ function curvature(pp: PiecewisePolynomial, precision: number): CurvatureReport 
     samples.push({ x: pp.breaks[i]!, value: hornerDerivative(c, h.times(0), 2) })
     samples.push({ x: pp.breaks[i + 1]!, value: hornerDerivative(c, h, 2) })
   })
+  const closed = pp.closedForm
+  if (closed) {
+    // a closed form (twice differentiable) is read at every knot
+    pp.breaks.forEach((x, i) => {
+      if (i > 0 && x.minus(pp.breaks[i - 1]!).lt(hMin)) hMin = x.minus(pp.breaks[i - 1]!)
+      samples.push({ x, value: closed.derivative(x, 2) })
+    })
+  }
   const floor = yMax.div(hMin).div(hMin).times(`1e-${precision}`)
   const at: Span[] = []
   let prev: { x: Dec, s: number } | null = null
@@ -76,7 +86,9 @@ function curvature(pp: PiecewisePolynomial, precision: number): CurvatureReport 
     prev = { x: sample.x, s }
   }
   return {
-    basis: 'second derivative of the fitted pieces at both ends of each piece, on the interpolated (transformed) scale',
+    basis: closed
+      ? 'second derivative of the fitted closed form at every knot, on the interpolated (transformed) scale'
+      : 'second derivative of the fitted pieces at both ends of each piece, on the interpolated (transformed) scale',
     count: at.length,
     at: at.slice(0, LIST_LIMIT),
   }
@@ -154,21 +166,22 @@ function outOfRange(kind: TableKind, xs: Dec[], ys: Dec[]): RangeReport {
 }
 
 /**
- * Forward rates between consecutive points: F = (ln P(t1) - ln P(t2)) / (t2 - t1) (continuous), reported with annual
- * compounding f = exp(F) - 1 (Hull, Options, Futures and Other Derivatives, ch. 4). ln P = -t ln(1 + r) for spot rates,
- * ln P for discount factors. A decimal ln costs ~0.1 ms at 50 digits, so the scan over every pair runs in binary
- * floating point only to rank and locate (minimum, largest jump); every figure reported is computed again in decimal, and
- * so is the sign of any forward whose float value lies within its error bound (floatDoubt) of zero.
+ * Forward rates between consecutive points: F = (ln P(t1) - ln P(t2)) / (t2 - t1) (continuous), reported under the curve's
+ * compounding (annual f = exp(F) - 1; Hull, Options, Futures and Other Derivatives, ch. 4). ln P = -t intensity(r) for spot
+ * rates (compounding.ts), ln P for discount factors. A decimal ln costs ~0.1 ms at 50 digits, so the scan over every pair
+ * runs in binary floating point only to rank and locate (minimum, largest jump); every figure reported is computed again in
+ * decimal, and so is the sign of any forward whose float value lies within its error bound (floatDoubt) of zero.
  */
-function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number): ForwardReport {
-  const convention = 'annual compounding between consecutive filled points; located on continuously compounded forwards'
+function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number, c: Compounding): ForwardReport {
+  const convention = `${c} compounding between consecutive filled points; located on continuously compounded forwards`
   const exactLnP = (k: number): Dec | null => {
     const t = xs[k]!
     const y = ys[k]!
-    if (kind === 'spot-rate') return t.isZero() ? t : y.gt(-1) ? y.plus(1).ln().times(t).neg() : null
+    // ln P = -t intensity(r) for spot rates under c (compounding.ts), ln P for discount factors
+    if (kind === 'spot-rate') return t.isZero() ? t : rateInDomain(y, c) ? intensityOf(y, c).times(t).neg() : null
     return y.gt(0) ? y.ln() : null
   }
-  const rough = ys.map((y, k) => roughLogDiscount(kind, xs[k]!.toNumber(), y.toNumber()))
+  const rough = ys.map((y, k) => roughLogDiscount(kind, xs[k]!.toNumber(), y.toNumber(), c))
   const fwd: { rough: number, doubt: number, k: number }[] = [] // pair (k-1, k)
   for (let k = 1; k < xs.length; k += 1) {
     const a = rough[k - 1]!
@@ -180,7 +193,7 @@ function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number): For
   }
   if (fwd.length === 0) return { convention, minimum: null, negativeCount: 0, negatives: [], largestJump: null }
   const exactF = (k: number): Dec => exactLnP(k - 1)!.minus(exactLnP(k)!).div(xs[k]!.minus(xs[k - 1]!))
-  const annual = (F: Dec) => roundTo(F.exp().minus(1), precision).toString()
+  const quoted = (F: Dec) => roundTo(rateOfIntensityExact(F, c), precision).toString()
   let min = fwd[0]!
   const negatives: Span[] = []
   let negativeCount = 0
@@ -202,11 +215,11 @@ function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number): For
   if (jumpAt > 0) {
     const before = exactF(fwd[jumpAt - 1]!.k)
     const after = exactF(fwd[jumpAt]!.k)
-    largestJump = { value: roundTo(after.exp().minus(before.exp()), precision).toString(), at: xs[fwd[jumpAt]!.k - 1]!.toString() }
+    largestJump = { value: roundTo(rateOfIntensityExact(after, c).minus(rateOfIntensityExact(before, c)), precision).toString(), at: xs[fwd[jumpAt]!.k - 1]!.toString() }
   }
   return {
     convention,
-    minimum: { value: annual(exactF(min.k)), from: xs[min.k - 1]!.toString(), to: xs[min.k]!.toString() },
+    minimum: { value: quoted(exactF(min.k)), from: xs[min.k - 1]!.toString(), to: xs[min.k]!.toString() },
     negativeCount,
     negatives,
     largestJump,
@@ -215,13 +228,24 @@ function forwards(kind: TableKind, xs: Dec[], ys: Dec[], precision: number): For
 
 /**
  * ln P(t) in binary floating point with a bound on its absolute error, under the standard model (precision.ts: each
- * conversion and operation within u, log and log1p within 2u). Spot rate r: L = -t log1p(r); converting r costs
+ * conversion and operation within u, log and log1p within 2u). Spot rate r, annual: L = -t log1p(r); converting r costs
  * |r|/(1 + r) u in log1p(r) (its derivative is 1/(1 + r)), log1p itself 2u |log1p r|, t and the product 2u |L|.
- * Discount factor P: L = ln P; converting P costs u (d ln P = dP/P), the log 2u |L|. Doubled for headroom.
+ * Semi-annual: L = -2t log1p(r/2) (r/2 exact): converting r costs |r|/(2 + r) u in log1p, times 2t. Continuous: L = -t r,
+ * the conversions and the product 3u |L|. Discount factor P: L = ln P; converting P costs u (d ln P = dP/P), the log
+ * 2u |L|. Doubled for headroom.
  */
-function roughLogDiscount(kind: TableKind, t: number, v: number): { value: number | null, error: number } {
+function roughLogDiscount(kind: TableKind, t: number, v: number, c: Compounding): { value: number | null, error: number } {
   if (kind === 'spot-rate') {
     if (t === 0) return { value: 0, error: 0 }
+    if (c === 'continuous') {
+      const L = -t * v
+      return { value: L, error: 2 * u * 3 * Math.abs(L) + FLOAT_TINY }
+    }
+    if (c === 'semi-annual') {
+      if (!(v > -2)) return { value: null, error: 0 }
+      const L = -2 * t * Math.log1p(v / 2)
+      return { value: L, error: 2 * u * (2 * Math.abs(t) * Math.abs(v) / (2 + v) + 4 * Math.abs(L)) + FLOAT_TINY }
+    }
     if (!(v > -1)) return { value: null, error: 0 }
     const L = -t * Math.log1p(v)
     return { value: L, error: 2 * u * (Math.abs(t) * Math.abs(v) / (1 + v) + 4 * Math.abs(L)) + FLOAT_TINY }
@@ -239,6 +263,15 @@ function floatDoubt(lnPErrors: number, dt: number, F: number): number {
   return 2 * (lnPErrors / dt + 3 * u * Math.abs(F)) + FLOAT_TINY
 }
 
+/** How the fill goes on outside the given points, in words (the rule's id kept where a reader may look it up). */
+const EXTRAPOLATION_WORDS: Partial<Record<string, string>> = {
+  flat: 'the end value held flat',
+  linear: 'the end piece extended as a straight line',
+  gompertz: "closed at old ages by a Gompertz law fitted to the oldest given ages (rule 'gompertz')",
+  kannisto: "closed at old ages by a Kannisto law fitted to the oldest given ages (rule 'kannisto')",
+  method: "carried on by the method's own formula (rule 'method')",
+}
+
 function extrapolationNotes(core: CoreFill): string[] {
   const lo = core.pp.breaks[0]!
   const hi = core.pp.breaks[core.pp.breaks.length - 1]!
@@ -249,6 +282,6 @@ function extrapolationNotes(core: CoreFill): string[] {
     else if (x.gt(hi)) above += 1
   }
   if (below + above === 0) return []
-  const rule = core.spec.extrapolation === 'flat' ? 'the end value held flat' : 'the end piece extended as a straight line'
+  const rule = EXTRAPOLATION_WORDS[core.spec.extrapolation] ?? `extended by rule '${core.spec.extrapolation}'`
   return [`${below + above} point(s) lie outside the given points, ${lo.toString()} to ${hi.toString()} (${below} below, ${above} above); there the fill is ${rule}.`]
 }

@@ -12,6 +12,8 @@ export type EngineErrorCode =
   | 'unequal-spacing'
   | 'invalid-group'
   | 'ill-conditioned'
+  | 'not-applicable'
+  | 'calibration-failed'
 
 export class EngineError extends Error {
   readonly code: EngineErrorCode

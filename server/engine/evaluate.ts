@@ -14,7 +14,7 @@ export interface UniformGrid {
  * Check the extrapolation rule before any work: with 'error', name the first point (in the caller's order)
  * that lies outside [x_min, x_max].
  */
-export function assertInside(pp: PiecewisePolynomial, xs: Dec[], rule: ExtrapolationRule, what: string, ascending = false): void {
+export function assertInside(pp: PiecewisePolynomial, xs: Dec[], rule: ExtrapolationRule, what: string, ascending = false, advice = "choose 'flat' or 'linear' extrapolation"): void {
   // the closure rules (gompertz, kannisto) continue a table upward only: below the first knot they refuse like 'error'
   const closure = (CLOSURE_RULES as readonly string[]).includes(rule)
   if ((rule !== 'error' && !closure) || xs.length === 0) return
@@ -30,7 +30,7 @@ export function assertInside(pp: PiecewisePolynomial, xs: Dec[], rule: Extrapola
         closure
           ? `${what} ${k + 1} (x = ${x.toString()}) lies below the first given age ${lo.toString()}; extrapolation '${rule}' closes the table at old ages only. Start the grid at ${lo.toString()}.`
           : `${what} ${k + 1} (x = ${x.toString()}) lies outside the knots [${lo.toString()}, ${hi!.toString()}] `
-            + `and extrapolation is 'error'; choose 'flat' or 'linear' extrapolation, or keep the points inside the knots.`,
+            + `and extrapolation is 'error'; ${advice}, or keep the points inside the knots.`,
       )
     }
   }

@@ -3,6 +3,7 @@
  * Pure TypeScript: imports decimal.js and nothing from the framework or the database.
  */
 export { fill } from './fill'
+export { fill2d } from './fill2d'
 export { compare, compareAsync } from './compare'
 export { split } from './split'
 export { graduate } from './graduate'

@@ -1,3 +1,4 @@
+import { intensityOf, rateInDomain, rateOfIntensityExact } from './compounding'
 import { roundTo, type Dec } from './decimal'
 import { evaluateValues, type CoreFill } from './pipeline'
 import type { MoneyFigure, MoneyImpact } from './types'
@@ -79,13 +80,19 @@ function mortalityMoney(core: CoreFill): MoneyImpact {
 }
 
 /**
- * Discount factors P(t) = (1 + r(t))^-t for spot rates (annual compounding) or the filled P(t); forward rates between key terms
- * f = (P(t1)/P(t2))^(1/(t2 - t1)) - 1; level annuity PV = sum_{k=1}^N P(k); Macaulay duration = sum k P(k) / sum P(k)
+ * Discount factors P(t) = (1 + r(t))^-t for spot rates (annual compounding; exp(-t intensity(r)) under another) or the filled
+ * P(t); forward rates between key terms f = (P(t1)/P(t2))^(1/(t2 - t1)) - 1 (annual; the same intensity quoted under another
+ * compounding); level annuity PV = sum_{k=1}^N P(k); Macaulay duration = sum k P(k) / sum P(k)
  * (Hull, Options, Futures and Other Derivatives, ch. 4; Macaulay 1938).
  */
 function curveMoney(core: CoreFill): MoneyImpact {
   const D = core.D
   const P = core.spec.precision
+  const c = core.spec.compounding ?? 'annual'
+  const fromSpot = (t: Dec, r: Dec) => (c === 'annual' ? r.plus(1).pow(t.neg()) : intensityOf(r, c).times(t).neg().exp())
+  const forward = (p1: Dec, p2: Dec, dt: Dec) => (c === 'annual'
+    ? p1.div(p2).pow(new D(1).div(dt)).minus(1)
+    : rateOfIntensityExact(p1.div(p2).ln().div(dt), c))
   const rule = core.spec.extrapolation
   const lo = core.pp.breaks[0]!
   const hi = core.pp.breaks[core.pp.breaks.length - 1]!
@@ -97,8 +104,8 @@ function curveMoney(core: CoreFill): MoneyImpact {
     inside.forEach((t, k) => {
       const y = values[k]!
       if (core.spec.kind === 'discount-factor') out.set(t.toString(), y)
-      else if (y.gt(-1)) out.set(t.toString(), y.plus(1).pow(t.neg()))
-      else out.set(t.toString(), `spot rate ${y.toString()} at t = ${t.toString()} is not above -1`)
+      else if (rateInDomain(y, c)) out.set(t.toString(), fromSpot(t, y))
+      else out.set(t.toString(), `spot rate ${y.toString()} at t = ${t.toString()} is not above ${c === 'annual' ? -1 : -2}`)
     })
     for (const t of terms) if (outside(t)) out.set(t.toString(), `t = ${t.toString()} lies outside the knots [${lo.toString()}, ${hi.toString()}] and extrapolation is 'error'`)
     return out
@@ -114,10 +121,10 @@ function curveMoney(core: CoreFill): MoneyImpact {
       ? { key: `P(${t})`, label: `Discount factor P(${t})`, value: null, reason: p }
       : { key: `P(${t})`, label: `Discount factor P(${t})`, value: roundTo(p, P).toString() })
     const key = `fwd(${prevT},${t})`
-    const label = `Forward rate ${prevT}-${t} (annual compounding)`
+    const label = `Forward rate ${prevT}-${t} (${c} compounding)`
     if (typeof p === 'string' || typeof prevP === 'string') figures.push({ key, label, value: null, reason: typeof p === 'string' ? p : prevP as string })
     else if (!p.gt(0)) figures.push({ key, label, value: null, reason: `P(${t}) is not positive` })
-    else figures.push({ key, label, value: roundTo(prevP.div(p).pow(new D(1).div(t.minus(prevT))).minus(1), P).toString() })
+    else figures.push({ key, label, value: roundTo(forward(prevP, p, t.minus(prevT)), P).toString() })
     prevT = t
     prevP = p
   }

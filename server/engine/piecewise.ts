@@ -1,4 +1,5 @@
 import type { Dec } from './decimal'
+import type { ConvergenceReport } from './types'
 
 /**
  * A piecewise polynomial: on [breaks[i], breaks[i+1]) the value is sum_k coefs[i][k] * t^k with t = x - breaks[i]
@@ -9,6 +10,20 @@ export interface PiecewisePolynomial {
   coefs: Dec[][]
   /** Value at the last break: the last knot's value, kept exactly rather than re-evaluated from the last piece. */
   endValue: Dec
+  /** Set by a method that is not polynomial between its knots (Smith-Wilson): it evaluates itself, and coefs is empty. */
+  closedForm?: ClosedForm
+}
+
+/** A fitted function given by a formula rather than pieces; breaks still mark the knots it was fitted to. */
+export interface ClosedForm {
+  /** Values on the method's scale at xs (any order, none below the first break), rounded to `digits` significant digits. */
+  evaluate(xs: Dec[], digits: number): Dec[]
+  /** First or second derivative on the method's scale at x. */
+  derivative(x: Dec, order: 1 | 2): Dec
+  /** What the fit has to say beside the result (knots it left out, a calibration). */
+  notes?: string[]
+  /** The convergence check of a method that converges to an ultimate forward rate (computed when the checks ask). */
+  convergence?: () => ConvergenceReport
 }
 
 /** Horner's rule: c0 + t (c1 + t (c2 + t c3)) (Horner 1819; Knuth, TAOCP vol. 2, 4.6.4). */

@@ -1,6 +1,8 @@
-import { quote, roundTo, type Dec, type DecimalCtor } from './decimal'
 import { fitClosure, isClosure, resolveClosureOptions, type ClosureLaw } from './closure'
+import { curveMethodScale, isCurveKind, logDiscountTransform, resolveCompounding, spotRateAtZero } from './compounding'
+import { quote, roundTo, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
+import { checkApplicability, extrapolationAdvice } from './applicability'
 import { assertInside, evaluateAny, evaluateAscending, type UniformGrid } from './evaluate'
 import { resolvePoints, type ResolvedPoints } from './grid'
 import { parseKnots, type ParsedKnots } from './knots'
@@ -9,7 +11,7 @@ import { resolveMoneyOptions } from './money-options'
 import type { PiecewisePolynomial } from './piecewise'
 import { resolvePrecision, workingContext, workingPrecision } from './precision'
 import { methodDefinition, resolveOptions } from './registry'
-import { TRANSFORMS, spotRateAtZero, type TransformDefinition } from './transforms'
+import { TRANSFORMS, type TransformDefinition } from './transforms'
 import { EXTRAPOLATION_KINDS, EXTRAPOLATION_RULES, TABLE_KINDS, type ExtrapolationRule, type FillRequest, type Knot, type ResolvedSpec, type TableKind, type TransformId } from './types'
 import { ENGINE_VERSION } from './version'
 
@@ -60,11 +62,15 @@ export function fitRequest(request: FillRequest, points?: ResolvedPoints | null)
   if (!EXTRAPOLATION_KINDS[extrapolation].includes(kind)) {
     throw new EngineError('invalid-request', `Extrapolation '${extrapolation}' applies to ${EXTRAPOLATION_KINDS[extrapolation].join(', ')} tables; this table's kind is '${kind}'.`)
   }
+  const compounding = resolveCompounding(request.compounding, kind)
+  checkApplicability(def, kind, extrapolation)
   const money = resolveMoneyOptions(D, request.money)
   if (def.scale === 'log' && transformId !== 'none') {
     throw new EngineError('invalid-request', `Method ${def.id} already interpolates ln y; use transform 'none' with it, or method linear with transform 'log'.`)
   }
-  const transform = TRANSFORMS[def.scale === 'log' ? 'log' : transformId]
+  const transform = def.scale === 'log-discount'
+    ? curveMethodScale(def.id, kind, transformId, compounding)
+    : transformId === 'log-discount' ? logDiscountTransform(compounding) : TRANSFORMS[def.scale === 'log' ? 'log' : transformId]
   const knots = parseKnots(D, request.knots)
   if (knots.x.length < def.minPoints) {
     throw new EngineError('too-few-points', `Method ${def.id} needs at least ${def.minPoints} points; ${knots.x.length} ${knots.x.length === 1 ? 'was' : 'were'} given.`)
@@ -75,22 +81,24 @@ export function fitRequest(request: FillRequest, points?: ResolvedPoints | null)
   let x = knots.x
   const y = knots.y.map((value, i) => {
     if (!transform.accepts(x[i]!, value)) {
-      const why = def.scale === 'log' ? `${def.id} needs y > 0` : `transform ${transform.id} needs ${transform.domain}`
+      const why = def.scale === 'log' ? `${def.id} needs y > 0` : def.scale === 'log-discount' ? `${def.id} works on ln P(t) and needs ${transform.domain}` : `transform ${transform.id} needs ${transform.domain}`
       throw new EngineError('transform-domain', `Point ${knots.position[i]} (x = ${x[i]!.toString()}): y '${value.toString()}' is outside the domain; ${why}.`, knots.position[i])
     }
     return transform.forward(x[i]!, value)
   })
-  if (transform.id === 'log-discount' && !x[0]!.isZero()) {
+  if (transform.anchorAtZero && !x[0]!.isZero()) {
     // ln P(0) = 0 by definition (P(0) = 1): anchor the curve there so short terms are interpolated, not extrapolated.
     x = [new D(0), ...x]
     y.unshift(new D(0))
-    notes.push('On the log discount factor scale, the point t = 0 with ln P(0) = 0 (P(0) = 1 by definition) was added to the given points.')
+    notes.push(`On the log discount factor scale${def.scale === 'log-discount' ? ` (where ${def.id} works)` : ''}, the point t = 0 with ln P(0) = 0 (P(0) = 1 by definition) was added to the given points.`)
   }
-  const pp = def.fit(x, y, options, D)
+  const resolved = def.calibrate ? def.calibrate(x, y, options, D) : options
+  const pp = def.fit(x, y, resolved, D)
+  if (pp.closedForm?.notes) notes.push(...pp.closedForm.notes)
   const spec: ResolvedSpec = {
     engineVersion: ENGINE_VERSION,
     method: def.id,
-    options,
+    options: resolved,
     transform: transformId,
     extrapolation,
     extrapolationOptions,
@@ -100,6 +108,7 @@ export function fitRequest(request: FillRequest, points?: ResolvedPoints | null)
     workingPrecision: workingPrecision(precision),
     rounding: 'half-even',
     kind,
+    ...(isCurveKind(kind) ? { compounding } : {}),
     money,
     knotCount: knots.x.length,
   }
@@ -128,7 +137,9 @@ export function evaluateValues(fitted: FittedRequest, xs: Dec[], ascending = fal
   // without a transform the polynomial's exact value is rounded once, to the stated precision;
   // with one, to the working precision, and the inverse transform's result to the stated precision
   const digits = transform.id === 'none' ? P : spec.workingPrecision
-  const raw = ascending ? evaluateAscending(pp, xs, spec.extrapolation, digits, uniform) : evaluateAny(pp, xs, spec.extrapolation, digits)
+  const raw = pp.closedForm
+    ? pp.closedForm.evaluate(xs, digits)
+    : ascending ? evaluateAscending(pp, xs, spec.extrapolation, digits, uniform) : evaluateAny(pp, xs, spec.extrapolation, digits)
   if (fitted.closure) closeAbove(fitted.closure, xs, raw, P)
   if (transform.id === 'none') return raw
   const out: Dec[] = new Array<Dec>(xs.length)
@@ -154,10 +165,11 @@ function closeAbove(closure: ClosureLaw, xs: Dec[], values: Dec[], P: number): v
 
 /** r(0) under log-discount: the given rate if a knot sits at t = 0, else the limit from the slope of ln P at 0. */
 function logDiscountAtZero(fitted: FittedRequest): Dec {
-  const { knots, pp } = fitted
+  const { knots, pp, spec } = fitted
   if (knots.x[0]!.isZero()) return knots.y[0]!
-  // the anchor (0, 0) is the first break, so the slope at 0 is c1 of the first piece
-  return spotRateAtZero(pp.coefs[0]![1] ?? pp.coefs[0]![0]!.times(0))
+  // the anchor (0, 0) is the first break, so the slope at 0 is c1 of the first piece (or the closed form's slope)
+  const slope = pp.closedForm ? pp.closedForm.derivative(pp.breaks[0]!, 1) : pp.coefs[0]![1] ?? pp.coefs[0]![0]!.times(0)
+  return spotRateAtZero(slope, spec.compounding)
 }
 
 /** Fit and evaluate at the output points: the hot path (no diagnostics, no money). */
@@ -165,7 +177,7 @@ export function fillCore(request: FillRequest, points?: ResolvedPoints): CoreFil
   const fitted = fitRequest(request, points)
   const { xs, ascending, noun, uniform } = fitted.points
   // under log-discount the anchor at t = 0 is part of the curve, so [0, first knot) counts as inside
-  assertInside(fitted.pp, xs, fitted.spec.extrapolation, noun, ascending)
+  assertInside(fitted.pp, xs, fitted.spec.extrapolation, noun, ascending, extrapolationAdvice(fitted.def))
   const values = evaluateValues(fitted, xs, ascending, uniform)
   const output: Knot[] = new Array<Knot>(xs.length)
   for (let k = 0; k < xs.length; k += 1) output[k] = { x: xs[k]!.toString(), y: values[k]!.toString() }

@@ -21,6 +21,16 @@ import { DEFAULT_PRECISION, MAX_PRECISION, MIN_PRECISION } from './types'
  *     makes large; iterative refinement (the residual computed exactly, the correction from the same factors) recovers them until the
  *     correction is below 10^-(p + MARGIN_DIGITS + 1) of the largest value, or refuses as ill-conditioned;
  *   - sums over a table in the money view (l_x products, annuity sums, up to 1,000 terms): at most 4, inside the same budget;
+ *   - dense solves of a matrix that may be ill-conditioned (Smith-Wilson's Wilson matrix, smith-wilson.ts): solved at
+ *     W + DENSE_SOLVE_DIGITS = W + 20, which absorbs a condition number up to 10^20 (measured: 10^6 to 10^8 for annual
+ *     terms, about 10^10 for monthly terms to 10 years, alpha 0.05 to 0.5), then rounded into the working context;
+ *   - a calibration search (Smith-Wilson's alpha) decides each step in searchPrecision() digits: a reading of the
+ *     criterion to READING_DIGITS with the guard digits, its dense solve with DENSE_SOLVE_DIGITS; the answer is confirmed
+ *     at the full precision and searched again there if the confirmation fails, so the result does not depend on it;
+ *   - a two-way fill (fill2d.ts) is two one-way passes: the pass along x is stated at W (intermediate values keep all the
+ *     guard digits of the final pass) and so runs in workingContext(W); the pass along d rounds to p;
+ *   - elementary functions carry ELEMENTARY_GUARD_DIGITS = 5 while they iterate (ln.ts), and return faithfully rounded
+ *     values at their context's precision;
  *   - what is left, MARGIN_DIGITS = 2, keeps the error before the final rounding below 10^-(p+2) of the scale, so each
  *     result is within half a unit in its last place plus 10^-(p+2) (relative to the largest value on the fit's scale)
  *     of what the method gives in exact arithmetic. tests/unit/engine/precision.test.ts checks this against runs at p + 60.
@@ -41,6 +51,16 @@ export function workingPrecision(p: number): number {
 export function workingContext(p: number): DecimalCtor {
   return decimalContext(workingPrecision(p))
 }
+
+/** Extra digits of a dense solve whose matrix may be ill-conditioned (see above): up to a condition number of 10^20. */
+export const DENSE_SOLVE_DIGITS = 20
+/** Digits a dense solve runs at for results wanted at `digits`. */
+export function denseSolvePrecision(digits: number): number {
+  return digits + DENSE_SOLVE_DIGITS
+}
+
+/** Digits carried by an elementary function (ln) while it iterates, beyond its result's. */
+export const ELEMENTARY_GUARD_DIGITS = 5
 
 /** The stated precision of a request, validated (default DEFAULT_PRECISION). */
 export function resolvePrecision(value: unknown): number {
@@ -70,4 +90,9 @@ export const FLOAT_TINY = Number.MIN_VALUE * 2 ** 60
 export const READING_DIGITS = 4
 export function readingContext(): DecimalCtor {
   return decimalContext(READING_DIGITS + GUARD_DIGITS)
+}
+
+/** Digits of each step of a calibration search (a reading of its criterion, solved densely); the answer is confirmed at W. */
+export function searchPrecision(): number {
+  return denseSolvePrecision(READING_DIGITS + GUARD_DIGITS)
 }

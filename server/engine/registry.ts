@@ -1,5 +1,6 @@
 import { describeFailure, parseDecimal, quote, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
+import { extrapolationRules } from './applicability'
 import { akima } from './methods/akima'
 import { beers } from './methods/beers'
 import { karupKing } from './methods/karup-king'
@@ -10,9 +11,11 @@ import { cubicNotAKnot } from './methods/cubic-not-a-knot'
 import { linear } from './methods/linear'
 import { logLinear } from './methods/log-linear'
 import type { MethodDefinition } from './methods/method'
+import { monotoneConvex } from './methods/monotone-convex'
 import { TABLE_KINDS, type MethodListing } from './types'
 import { pchip } from './methods/pchip'
 import { quadratic } from './methods/quadratic'
+import { smithWilson } from './methods/smith-wilson'
 
 /** Every method, in the order the product lists them. Adding a method: one file in methods/ and one line here. */
 const DEFINITIONS: MethodDefinition[] = [
@@ -27,6 +30,8 @@ const DEFINITIONS: MethodDefinition[] = [
   karupKing,
   sprague,
   beers,
+  monotoneConvex,
+  smithWilson,
 ]
 
 const BY_ID = new Map<string, MethodDefinition>(DEFINITIONS.map(d => [d.id, d]))
@@ -41,6 +46,7 @@ export const METHODS: readonly MethodListing[] = DEFINITIONS.map(d => ({
   source: d.source,
   summary: d.summary,
   options: d.options.map(o => ({ ...o })),
+  extrapolation: extrapolationRules(d),
 }))
 
 export function methodDefinition(id: unknown): MethodDefinition {
@@ -76,9 +82,13 @@ export function resolveOptions(def: MethodDefinition, given: unknown, D: Decimal
       }
       out[opt.name] = value
     }
+    else if (typeof value === 'string' && opt.keywords?.includes(value)) {
+      out[opt.name] = value // a word the method resolves (e.g. 'auto'), in calibrate
+    }
     else {
       const parsed = parseDecimal(D, value)
-      if (!parsed.ok) throw new EngineError('invalid-option', `Option ${opt.name} of ${def.id}: ${quote(value)} ${describeFailure(parsed.reason)}.`)
+      const words = opt.keywords?.length ? ` (give a decimal string or ${opt.keywords.map(w => `'${w}'`).join(', ')})` : ''
+      if (!parsed.ok) throw new EngineError('invalid-option', `Option ${opt.name} of ${def.id}: ${quote(value)} ${describeFailure(parsed.reason)}${words}.`)
       out[opt.name] = parsed.value.toString()
     }
   }

@@ -1,3 +1,4 @@
+import { logDiscountTransform } from './compounding'
 import { exp, type Dec } from './decimal'
 import type { TransformId } from './types'
 
@@ -11,6 +12,8 @@ export interface TransformDefinition {
   /** The values the transform accepts, for messages. */
   domain: string
   description: string
+  /** ln P(0) = 0 by definition: the point (0, 0) is added to the knots when no knot sits at t = 0. */
+  anchorAtZero?: boolean
   accepts(x: Dec, y: Dec): boolean
   forward(x: Dec, y: Dec): Dec
   inverse(x: Dec, v: Dec): Dec
@@ -59,27 +62,11 @@ const cumulativeHazard: TransformDefinition = {
   inverse: (_x, v) => exp(v.neg()).neg().plus(1),
 }
 
-const logDiscount: TransformDefinition = {
-  id: 'log-discount',
-  label: 'Log discount factor',
-  domain: 't >= 0 and r > -1',
-  description: 'Spot rates r(t) (annual compounding) to ln P(t) = -t ln(1 + r(t)); interpolate; map back with r = exp(-v / t) - 1. '
-    + 'At t = 0 the value is the limit exp(-dv/dt) - 1 (the instantaneous forward rate), or the given rate if a knot sits at t = 0.',
-  accepts: (x, y) => x.gte(0) && y.gt(-1),
-  // ln P(t) = -t ln(1 + r(t)), P(t) = (1 + r(t))^-t (annual compounding; Hull, Options, Futures and Other Derivatives, ch. 4)
-  forward: (x, y) => (x.isZero() ? y.times(0) : y.plus(1).ln().times(x).neg()),
-  inverse: (x, v) => exp(v.div(x).neg()).minus(1),
-}
-
 export const TRANSFORMS: Record<TransformId, TransformDefinition> = {
   'none': none,
   'log': log,
   'logit': logit,
   'cumulative-hazard': cumulativeHazard,
-  'log-discount': logDiscount,
-}
-
-/** r(0) from the slope of ln P at t = 0: r(0) = exp(-d lnP/dt) - 1 (limit of -ln P(t)/t as t -> 0, l'Hopital). */
-export function spotRateAtZero(slopeOfLogDiscount: Dec): Dec {
-  return exp(slopeOfLogDiscount.neg()).minus(1)
+  // spot rates under annual compounding; other compoundings in compounding.ts
+  'log-discount': logDiscountTransform('annual'),
 }

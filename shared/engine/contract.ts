@@ -6,7 +6,7 @@
 export const REVIEW_CAUTION = 'Filled values are a calculation aid. Before use in reserves or prices, they need review by a qualified actuary under the applicable actuarial standards and local regulation.'
 
 /** Interpolation methods, in the order the product lists them. */
-export const METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima', 'karup-king', 'sprague', 'beers'] as const
+export const METHOD_IDS = ['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima', 'karup-king', 'sprague', 'beers', 'monotone-convex', 'smith-wilson'] as const
 export type MethodId = (typeof METHOD_IDS)[number]
 
 /** Scales a method may work on (the values are mapped there, filled, and mapped back). */
@@ -16,13 +16,21 @@ export type TransformId = (typeof TRANSFORM_IDS)[number]
 /**
  * What happens to points outside the given range. gompertz and kannisto close a mortality table at old ages: above the last
  * given age q follows a law fitted to the oldest given ages, up to a terminal age where q = 1 (options: extrapolationOptions).
+ * method: the method extends itself, where it has an extension of its own (the method listing's `extrapolation`).
  */
-export const EXTRAPOLATION_RULES = ['error', 'flat', 'linear', 'gompertz', 'kannisto'] as const
+export const EXTRAPOLATION_RULES = ['error', 'flat', 'linear', 'gompertz', 'kannisto', 'method'] as const
 export type ExtrapolationRule = (typeof EXTRAPOLATION_RULES)[number]
 
 /** Table kinds: they decide the range checks, the forward-rate check and the money view. */
 export const TABLE_KINDS = ['mortality', 'lapse', 'salary', 'spot-rate', 'discount-factor', 'other'] as const
 export type TableKind = (typeof TABLE_KINDS)[number]
+
+/** How a curve table's spot rates compound: ln P(t) = -t ln(1 + r), -r t, or -2t ln(1 + r/2). */
+export const COMPOUNDING_IDS = ['annual', 'continuous', 'semi-annual'] as const
+export type Compounding = (typeof COMPOUNDING_IDS)[number]
+
+/** Table kinds whose values are a curve (spot rates or discount factors): compounding and forward rates apply. */
+export const CURVE_KINDS = ['spot-rate', 'discount-factor'] as const satisfies readonly TableKind[]
 
 /** The closure rules among EXTRAPOLATION_RULES: a fitted mortality law above the last given age. */
 export const CLOSURE_RULES = ['gompertz', 'kannisto'] as const
@@ -35,6 +43,8 @@ export const EXTRAPOLATION_KINDS: Record<ExtrapolationRule, readonly TableKind[]
   linear: TABLE_KINDS,
   gompertz: ['mortality'],
   kannisto: ['mortality'],
+  // wherever the chosen method has an extension of its own (smith-wilson: curve kinds); the method refuses it otherwise
+  method: TABLE_KINDS,
 }
 
 /**
@@ -95,6 +105,8 @@ export interface FillRequest {
   /** Significant digits of the results (default 40), half-even rounding. */
   precision?: number
   kind?: TableKind
+  /** Curve kinds only: how the spot rates compound (default annual); curve methods work on ln P(t) under it. */
+  compounding?: Compounding
   money?: MoneyOptions
 }
 
@@ -121,6 +133,8 @@ export interface ResolvedSpec {
   workingPrecision: number
   rounding: 'half-even'
   kind: TableKind
+  /** Present for curve kinds (spot-rate, discount-factor): the compounding the rates were read and reported in. */
+  compounding?: Compounding
   money: ResolvedMoneyOptions
   knotCount: number
 }
@@ -173,7 +187,26 @@ export interface Diagnostics {
   closure: ClosureReport | null
   /** Locality of a bump of the middle given point (null with fewer than 3 points, or when the bumped value is outside the transform's domain). */
   bump: BumpReport | null
+  /** Methods that converge to an ultimate forward rate (smith-wilson): how close the forward comes at the convergence point. */
+  convergence?: ConvergenceReport
   notes: string[]
+}
+
+/** Smith-Wilson's convergence check: the forward intensity at the convergence point against ln(1 + UFR). */
+export interface ConvergenceReport {
+  convergencePoint: string
+  alpha: string
+  /** ln(1 + UFR), the ultimate forward intensity. */
+  ultimateIntensity: string
+  /** The forward intensity -d ln P/dt at the convergence point. */
+  forwardIntensity: string
+  /** |forwardIntensity - ultimateIntensity| */
+  gap: string
+  /** The largest gap allowed: 0.0001 (1 basis point). */
+  tolerance: string
+  met: boolean
+  /** The same check one step of the alpha search grid lower (null below the lower bound 0.05): not met when alpha was calibrated. */
+  below: { alpha: string, gap: string, met: boolean } | null
 }
 
 export interface ClosureReport {
@@ -275,6 +308,8 @@ export interface OptionDescriptor {
   valueLabels?: Record<string, string>
   type: 'enum' | 'decimal'
   values?: string[]
+  /** Decimal options only: words accepted instead of a number (e.g. 'auto'), resolved by the method to a number. */
+  keywords?: string[]
   default: string
   description: string
   /** The option is used only when another option has one of these values, e.g. { condition: ['left-slope'] }. */
@@ -301,6 +336,8 @@ export interface MethodListing {
   source: string
   summary: string
   options: OptionDescriptor[]
+  /** Extrapolation rules the method accepts ('method' only where it has its own extension). */
+  extrapolation: ExtrapolationRule[]
 }
 
 /** What a client may show about a transform. */
@@ -309,6 +346,60 @@ export interface TransformListing {
   label: string
   domain: string
   description: string
+}
+
+/** A given value of a two-way table: x (e.g. age at entry) and d (e.g. duration) on the two axes. */
+export interface Knot2D { x: string, d: string, y: string }
+
+/** A method for one axis of a two-way fill. */
+export interface AxisMethod { method: MethodId, options?: Record<string, string> }
+
+/** One axis's output points: a regular grid or a list. */
+export type AxisPoints = GridSpec | string[]
+
+export interface Fill2DRequest {
+  /** Values on a full rectangular grid: every x with every d, once. */
+  knots: Knot2D[]
+  /** One method for both axes (its options in `options`), or one per axis. */
+  method: MethodId | { x: AxisMethod, d: AxisMethod }
+  options?: Record<string, string>
+  /** A scale applied to y before both passes and undone after them (none, log, logit, cumulative-hazard). */
+  transform?: TransformId
+  /** Either a grid on each axis (every x with every d) ... */
+  grid?: { x: AxisPoints, d: AxisPoints }
+  /** ... or a list of points (output keeps this order). */
+  at?: { x: string, d: string }[]
+  /** Applies along both axes ('method' is not offered: no method that fills both axes has an extension of its own). */
+  extrapolation?: ExtrapolationRule
+  precision?: number
+  kind?: TableKind
+}
+
+export interface Resolved2DSpec {
+  engineVersion: string
+  /** The methods and resolved options, per axis; the fill runs along x first (every given d), then along d. */
+  methods: { x: { method: MethodId, options: Record<string, string> }, d: { method: MethodId, options: Record<string, string> } }
+  transform: TransformId
+  extrapolation: ExtrapolationRule
+  grid: { x: GridSpec | string[], d: GridSpec | string[] } | null
+  at: { x: string, d: string }[] | null
+  precision: number
+  workingPrecision: number
+  rounding: 'half-even'
+  kind: TableKind
+  /** Given values along each axis. */
+  knotCount: { x: number, d: number }
+}
+
+export interface Fill2DResult {
+  points: Knot2D[]
+  spec: Resolved2DSpec
+  diagnostics: {
+    /** Largest |filled - given| over the given points, both rounded to the stated precision. */
+    maxKnotDeviation: string
+    knotsReproduced: boolean
+    notes: string[]
+  }
 }
 
 /** Methods that split group totals into single-year values (the pivotal formulas applied to cumulative totals). */

@@ -128,7 +128,7 @@ describe('concurrent imports per person', () => {
   function slowUpload(client: Client) {
     const url = new URL(`${BASE}/api/orgs/${LARKSPUR}/imports`)
     let status = 0
-    const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'x-forwarded-for': client.address, 'content-type': 'multipart/form-data; boundary=KW', 'transfer-encoding': 'chunked' } })
+    const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { 'cookie': client.cookie, 'origin': ORIGIN, 'x-forwarded-for': client.address, 'content-type': 'multipart/form-data; boundary=KW', 'transfer-encoding': 'chunked' } })
     const answered = new Promise<number>((resolve) => {
       req.on('response', (res) => { status = res.statusCode ?? 0; res.resume(); res.on('end', () => resolve(status)) })
       req.on('error', () => resolve(status))

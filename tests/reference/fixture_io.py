@@ -10,3 +10,11 @@ def emit(filename, data):
         with open(os.path.join(os.path.dirname(os.path.abspath(__file__)), filename), 'w') as f:
             f.write(text + '\n')
     print(text)
+
+
+def provenance(source, generator):
+    """What heads a fixture: its outside source, the script that computed it, and the library versions it ran with."""
+    import numpy
+    import scipy
+    return {"source": source, "generator": generator, "scipy": scipy.__version__, "numpy": numpy.__version__,
+            "python": sys.version.split()[0]}

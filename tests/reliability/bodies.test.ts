@@ -23,7 +23,7 @@ function flood(path: string, total: number, declared: boolean): Promise<{ status
     let sent = 0
     const finish = () => { clearInterval(sampler); resolve({ status, body, sent, peakRss: Math.max(peakRss, rssBytes(stack().serverPid)) }) }
     const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST',
-      headers: { 'content-type': 'application/json', 'x-forwarded-for': '10.250.0.1', ...(declared ? { 'content-length': total } : { 'transfer-encoding': 'chunked' }) } })
+      headers: { 'content-type': 'application/json', 'origin': url.origin, 'x-forwarded-for': '10.250.0.1', ...(declared ? { 'content-length': total } : { 'transfer-encoding': 'chunked' }) } })
     req.on('response', (res) => {
       status = res.statusCode ?? 0
       res.setEncoding('utf8')

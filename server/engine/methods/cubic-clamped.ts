@@ -11,6 +11,7 @@ export const cubicClamped: MethodDefinition = {
     { name: 'startSlope', label: 'Start slope', type: 'decimal', default: '0', description: 'dy/dx at the first point (on the transformed scale when a transform is chosen).' },
     { name: 'endSlope', label: 'End slope', type: 'decimal', default: '0', description: 'dy/dx at the last point (on the transformed scale when a transform is chosen).' },
   ],
+  affine: true,
   fit(x, y, options, D) {
     // s'(x_0) = startSlope, s'(x_n) = endSlope (clamped / complete end conditions; de Boor 2001, ch. IV)
     return cubicSpline(

@@ -51,6 +51,7 @@ export const quadratic: MethodDefinition = {
       appliesWhen: { condition: ['left-slope', 'right-slope'] },
     },
   ],
+  affine: true,
   fit(x, y, options, D) {
     const condition = options.condition as Condition
     const s = quadraticSlopes(x, y, condition, new D(options.slope ?? '0'))

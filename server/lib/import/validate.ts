@@ -5,7 +5,6 @@ import type { ImportMapping } from '#shared/schemas/imports'
 import type { ImportFinding, PointDto } from '#shared/types/tables'
 import { cellAddress } from './analyse'
 import type { StoredSheet } from './read-workbook'
-import { yieldToEventLoop } from '../event-loop'
 import { parseBand, type Band } from '#shared/bands'
 import type { BandSummary } from '#shared/types/tables'
 import { resolveBands, type BandValue } from './bands'
@@ -21,7 +20,7 @@ export function sortPoints(points: PointDto[]): PointDto[] {
 
 /**
  * Every rule of the import, on the stored cells plus the person's fixes, one row at a time: `checkRow` for each row under
- * the header, then `finish`. Pure; run at preview and again at create (validateMapping / validateMappingInSlices).
+ * the header, then `finish`. Pure; run at preview and again at create (validateMapping, in a worker thread).
  */
 function createValidator(sheet: StoredSheet, m: ImportMapping) {
   const findings: ImportFinding[] = []
@@ -125,22 +124,5 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
 export function validateMapping(sheet: StoredSheet, m: ImportMapping): Validation {
   const v = createValidator(sheet, m)
   for (let r = v.firstRow; r < v.endRow; r++) v.checkRow(r)
-  return v.finish()
-}
-
-/**
- * The same, pausing after every `sliceMs` of work so the server answers other requests meanwhile: a preview of the
- * largest upload the limits allow takes seconds of CPU, which would otherwise hold every other request that long.
- */
-export async function validateMappingInSlices(sheet: StoredSheet, m: ImportMapping, sliceMs = 10): Promise<Validation> {
-  const v = createValidator(sheet, m)
-  let sliceStart = performance.now()
-  for (let r = v.firstRow; r < v.endRow; r++) {
-    v.checkRow(r)
-    if ((r & 63) === 0 && performance.now() - sliceStart > sliceMs) {
-      await yieldToEventLoop()
-      sliceStart = performance.now()
-    }
-  }
   return v.finish()
 }

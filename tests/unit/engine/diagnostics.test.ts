@@ -59,7 +59,7 @@ describe('diagnostics', () => {
   })
 
   it('lists every method with options, and a method file per registry entry', () => {
-    expect(METHODS.map(m => m.id)).toEqual(['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima', 'karup-king', 'sprague', 'beers'])
+    expect(METHODS.map(m => m.id)).toEqual(['linear', 'log-linear', 'quadratic', 'cubic-natural', 'cubic-clamped', 'cubic-not-a-knot', 'pchip', 'akima', 'karup-king', 'sprague', 'beers', 'monotone-convex', 'smith-wilson'])
     expect(METHODS.find(m => m.id === 'quadratic')!.options.map(o => o.name)).toEqual(['condition', 'slope'])
     for (const m of METHODS) expect(m.source.length).toBeGreaterThan(20)
   })

@@ -1,21 +1,10 @@
 // Messages a user acts on: each names the point and the reason. Source: the wording (e.g. "Point 3 (x = 45): y 'abc' is not a number").
 import { describe, expect, it } from 'vitest'
-import { EngineError, fill, type FillRequest } from '~~/server/engine'
-import { T, knots } from './helpers'
+import { fill, type FillRequest } from '~~/server/engine'
+import { T, engineErrorOf as errorOf, knots } from './helpers'
 
 const grid = { from: '20', to: '40', step: '5' }
 const base: FillRequest = { knots: knots([20, 30, 45], ['0.001', '0.002', '0.004']), method: 'linear', grid: { from: '20', to: '45', step: '5' } }
-
-function errorOf(request: FillRequest): EngineError {
-  try {
-    fill(request)
-  }
-  catch (e) {
-    if (e instanceof EngineError) return e
-    throw e
-  }
-  throw new Error('no error raised')
-}
 
 describe('engine errors', () => {
   it('names a non-numeric y by position and x', () => {

@@ -1,43 +1,9 @@
 import ExcelJS from 'exceljs'
 import { describe, expect, it } from 'vitest'
 import { readStreaming, readWorkbook } from '~~/server/lib/import/read-workbook'
-import { validateMapping, validateMappingInSlices } from '~~/server/lib/import/validate'
-import type { StoredSheet } from '~~/server/lib/import/stored-sheet'
-import type { ImportMapping } from '#shared/schemas/imports'
 import { IMPORT_CELLS_CAP } from '#shared/import-caps'
 
-// Imports are capped by work (cells = rows x columns over all sheets), and the preview's checks run in slices so the
-// server answers other requests meanwhile, with the same findings as in one go.
-
-const mapping = (values: number): ImportMapping => ({
-  sheet: 'S', headerRow: 0, axisColumn: 0, axis: 'age', axisUnit: 'years', edits: { '5:1': '0.5' }, description: '',
-  columns: Array.from({ length: values }, (_, i) => ({ index: i + 1, name: `v${i}`, kind: 'mortality', valueUnit: 'per-unit' })),
-})
-
-function sheet(rows: number, cols: number): StoredSheet {
-  const out: (string | null)[][] = [['age', ...Array.from({ length: cols - 1 }, (_, i) => `v${i}`)]]
-  for (let r = 0; r < rows; r++) out.push([String(r), ...Array.from({ length: cols - 1 }, (_, i) => (r === 7 && i === 2 ? 'n/a' : (r === 9 ? '' : `0.00${(r + i) % 97 + 1}`)))])
-  out[40] = [String(3), '0.1'] // a duplicate age: an error finding
-  return { name: 'S', rows: out, formulas: ['12:3'], colCount: cols }
-}
-
-describe('checks in slices', () => {
-  it('find exactly what the one-go check finds', async () => {
-    const s = sheet(600, 8)
-    expect(await validateMappingInSlices(s, mapping(7))).toEqual(validateMapping(s, mapping(7)))
-  })
-  it('let a timer run while they work (the event loop is not held)', async () => {
-    const s = sheet(8000, 6)
-    let ticks = 0
-    const timer = setInterval(() => { ticks++ }, 1)
-    const started = performance.now()
-    await validateMappingInSlices(s, mapping(5), 2)
-    const ms = performance.now() - started
-    clearInterval(timer)
-    expect(ms).toBeGreaterThan(20) // long enough to need slices at all
-    expect(ticks).toBeGreaterThan(2)
-  })
-})
+// Imports are capped by work: cells = rows x columns over all sheets.
 
 describe('cells cap', () => {
   it('refuses a CSV over the cap, naming the count and the limit', async () => {
