@@ -39,12 +39,13 @@ describe('methods offered', () => {
   })
 
   it('agrees with the engine: every offered method fills, every method refused for spacing is refused by the engine', () => {
-    const knots = (xs: string[]) => xs.map((x, i) => ({ x, y: String(0.01 + 0.002 * i + 0.0001 * i * i) }))
+    // plausible values of each kind: discount factors e^(-0.03 t), else gently rising rates
+    const knots = (xs: string[], kind: string) => xs.map((x, i) => ({ x, y: kind === 'discount-factor' ? Math.exp(-0.03 * Number(x)).toPrecision(12) : String(0.01 + 0.002 * i + 0.0001 * i * i) }))
     for (const kind of TABLE_KINDS) {
       for (const xs of [FIVE_YEAR, TENORS]) {
         for (const listing of METHODS) {
           const scope = methodScope(listing, kind, xs)
-          const run = () => fill({ knots: knots(xs), kind, method: listing.id, at: [xs[0]!, xs.at(-1)!] })
+          const run = () => fill({ knots: knots(xs, kind), kind, method: listing.id, at: [xs[0]!, xs.at(-1)!] })
           if (scope.offered) expect(run, `${listing.id} on ${kind}`).not.toThrow()
           else if (scope.reason.includes('spaced')) expect(run).toThrow(/equally spaced/)
         }
