@@ -50,7 +50,7 @@ export async function saveFill(event: H3Event, access: OrgAccess, tableId: strin
   const read = await findVersion(access.org.id, tableId, number)
   const knots = await readPoints(read.id)
   let result: FillTaskOutput
-  try { result = await runTask('fill', buildFillRequest({ knots, kind: table.kind }, input, input.choice), { signal }) }
+  try { result = await runTask('fill', buildFillRequest({ knots, kind: table.kind, compounding: table.compounding }, input, input.choice), { signal }) }
   catch (error) { engineFailure(error) }
   await inTransaction(async (t) => {
     const version = await findVersion(access.org.id, tableId, number, { transaction: t, lock: true })

@@ -49,7 +49,7 @@ export async function listVersions(orgId: string, tableId: string): Promise<Vers
 export async function describeTable(orgId: string, tableId: string): Promise<TableDto> {
   const t = await findTable(orgId, tableId)
   return {
-    id: t.id, name: t.name, kind: t.kind, axis: t.axis, axisUnit: t.axisUnit, valueUnit: t.valueUnit,
+    id: t.id, name: t.name, kind: t.kind, axis: t.axis, axisUnit: t.axisUnit, valueUnit: t.valueUnit, compounding: t.compounding,
     description: t.description, tags: t.tags, createdAt: t.createdAt.toISOString(), updatedAt: t.updatedAt.toISOString(),
     versions: await listVersions(orgId, tableId),
   }
@@ -63,20 +63,20 @@ export async function getVersion(orgId: string, tableId: string, number: number)
 
 export async function updateTable(event: H3Event, access: OrgAccess, tableId: string, input: TableUpdateInput): Promise<TableDto> {
   const table = await findTable(access.org.id, tableId)
-  const meaning = (['kind', 'axis', 'axisUnit', 'valueUnit'] as const).filter(k => input[k] !== undefined && input[k] !== table[k])
+  const meaning = (['kind', 'axis', 'axisUnit', 'valueUnit', 'compounding'] as const).filter(k => input[k] !== undefined && input[k] !== table[k])
   if (!unitFitsKind(input.kind ?? table.kind, input.valueUnit ?? table.valueUnit)) throw apiError(400, 'invalid-input', UNIT_KIND_MESSAGE, { issues: [{ path: 'valueUnit', message: UNIT_KIND_MESSAGE }] })
   if (meaning.length) {
     // what the numbers mean is part of what a reviewer checked and signed: it is fixed once a version left draft
     const [row] = await useDb().query<{ n: number }>(`SELECT count(*)::int AS n FROM table_versions WHERE table_id = :tableId AND status <> 'draft'`, { replacements: { tableId: table.id }, type: QueryTypes.SELECT })
     if (row!.n > 0) {
-      throw apiError(409, 'meaning-fixed', 'The kind, axis and units cannot change once a version has been submitted for review or signed off. Name, description and tags can; for another kind or unit, create a new table.')
+      throw apiError(409, 'meaning-fixed', 'The kind, axis, units and compounding cannot change once a version has been submitted for review or signed off. Name, description and tags can; for another kind or unit, create a new table.')
     }
   }
   if (input.name && input.name !== table.name && await RateTable.findOne({ where: { orgId: access.org.id, name: input.name } })) {
     throw apiError(409, 'name-taken', `A table called "${input.name}" already exists.`)
   }
   await inTransaction(async (t) => {
-    const before = { name: table.name, kind: table.kind, valueUnit: table.valueUnit, axis: table.axis, axisUnit: table.axisUnit, tags: table.tags }
+    const before = { name: table.name, kind: table.kind, valueUnit: table.valueUnit, axis: table.axis, axisUnit: table.axisUnit, compounding: table.compounding, tags: table.tags }
     await table.update(input, { transaction: t })
     await audit(event, { orgId: access.org.id, action: 'table.update', objectType: 'rate_table', objectId: table.id, detail: { before, changes: input } }, t)
   })

@@ -2,7 +2,7 @@ import { z } from '#shared/zod'
 import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFitsKind } from '../tables'
 import { IMPORT_COLUMNS_CAP, IMPORT_VALUE_COLUMNS_CAP } from '../import-caps'
 import { BAND_VALUE_KINDS } from '../bands'
-import { SPLIT_METHOD_IDS } from '../engine/contract'
+import { COMPOUNDING_IDS, SPLIT_METHOD_IDS } from '../engine/contract'
 
 /** The person's answer when the axis holds bands ("55-59"): totals to split into single years (and how), or band rates. */
 export const bandAnswerSchema = z.object({
@@ -17,6 +17,8 @@ export const importColumnSchema = z.object({
   name: z.string().trim().min(1, { message: 'Give each new table a name' }).max(160),
   kind: z.enum(TABLE_KINDS),
   valueUnit: z.enum(VALUE_UNITS),
+  /** How a curve's spot rates compound (curve kinds; annual when not said). */
+  compounding: z.enum(COMPOUNDING_IDS).optional(),
 }).refine(c => unitFitsKind(c.kind, c.valueUnit), { path: ['valueUnit'], message: UNIT_KIND_MESSAGE })
 
 export const importMappingSchema = z.object({

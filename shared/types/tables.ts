@@ -1,4 +1,5 @@
 import type { GraduationRecord } from './graduation'
+import type { Compounding } from '../engine/contract'
 import type { Axis, AxisUnit, TableKind, ValueUnit, VersionStatus } from '../tables'
 
 export interface PointDto { x: string; y: string } // stored per-unit decimals as strings
@@ -27,6 +28,8 @@ export interface TableDto {
   axis: Axis
   axisUnit: AxisUnit
   valueUnit: ValueUnit
+  /** How the spot rates compound (curve kinds; annual for every other kind). */
+  compounding: Compounding
   description: string
   tags: string[]
   createdAt: string
