@@ -9,6 +9,8 @@ export default {
     './pages/**/*.vue',
     './app.vue',
     './composables/**/*.ts',
+    './utils/**/*.ts',
+    './plugins/**/*.ts',
   ],
   theme: {
     extend: {

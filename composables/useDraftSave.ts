@@ -6,6 +6,7 @@ import type { GridRow } from './usePointsGrid'
 
 /** Grid rows <-> stored points, and saving a draft under its optimistic lock. */
 export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
+  const api = useApi()
   const rows = ref<GridRow[]>([])
   const lockVersion = ref(0)
   const conflict = ref(false)
@@ -37,7 +38,7 @@ export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
     if (!check.success) { failure.value = check.error.issues[0]!.message; return null }
     saving.value = true
     try {
-      const v = await $fetch<VersionDto>(`${url.value}/points`, { method: 'PUT', body })
+      const v = await api<VersionDto>(`${url.value}/points`, { method: 'PUT', body })
       lockVersion.value = v.lockVersion
       saved.value = `Saved at ${new Date().toLocaleTimeString('en-GB')}.`
       return v
@@ -49,7 +50,7 @@ export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
   }
   /** After a 409: take the newest lock and save what is on screen over it (nothing typed is lost). */
   async function saveMineOnTop() {
-    const latest = await $fetch<VersionDto>(url.value)
+    const latest = await api<VersionDto>(url.value)
     lockVersion.value = latest.lockVersion
     conflict.value = false
     return save()

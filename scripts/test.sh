@@ -1,13 +1,16 @@
 #!/usr/bin/env bash
 # npm test: the same set-up as npm start against a throwaway database, then lint,
 # type-check, unit, two-node, API, browser and reliability tests.
-# Usage: npm test [-- unit|nodes|api|browser|reliability|static]
+# Usage: npm test [-- SUITES], SUITES one or more (comma-separated) of static,unit,nodes,api,browser,reliability
+# (e.g. npm test -- nodes,api: one build for both).
 # The reliability suite runs its own PostgreSQL cluster and app server (tests/reliability/stack.ts), which it kills.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 only="${1:-all}"
+# whether suite $1 was asked for
+want() { [ "$only" = all ] || [[ ",$only," == *",$1,"* ]]; }
 bash scripts/ensure-deps.sh
-if [ ! -x /usr/bin/chromium ] && { [ "$only" = all ] || [ "$only" = browser ]; }; then
+if [ ! -x /usr/bin/chromium ] && { want browser; }; then
   echo "[test] installing Debian's chromium"
   DEBIAN_FRONTEND=noninteractive apt-get update -qq >/dev/null && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null
 fi
@@ -33,32 +36,32 @@ kw_fakes_to_nuxt
 npx tsx scripts/migrate.ts >/dev/null
 npx tsx scripts/seed.ts >/dev/null
 
-if [ "$only" = all ] || [ "$only" = static ]; then
+if want static; then
   echo "[test] lint"; npx eslint .
   echo "[test] type-check"; npm run -s typecheck
 fi
-if [ "$only" = all ] || [ "$only" = unit ]; then
+if want unit; then
   echo "[test] unit"; npx vitest run --project unit
 fi
-if [ "$only" = all ] || [ "$only" = nodes ] || [ "$only" = api ] || [ "$only" = browser ] || [ "$only" = reliability ]; then
+if want nodes || want api || want browser || want reliability; then
   echo "[test] building"; npx nuxt build > .data/build-test.log 2>&1 || { tail -40 .data/build-test.log; exit 1; }
 fi
-if [ "$only" = all ] || [ "$only" = nodes ]; then
+if want nodes; then
   # two app nodes of the built server on the test database, started by the test itself; before the server below
   # starts, so no third node takes the runs the test follows
   echo "[test] two nodes"; npx vitest run --project nodes
 fi
-if [ "$only" = all ] || [ "$only" = api ] || [ "$only" = browser ]; then
+if want api || want browser; then
   port="${port_base:-$(( 3100 + ($$ % 400) ))}"
   export KW_BASE_URL="http://127.0.0.1:$port" NUXT_TRUST_PROXY=1
   export NUXT_PUBLIC_BASE_URL="$KW_BASE_URL"
   HOST=127.0.0.1 PORT="$port" node .output/server/index.mjs > ".data/server-test.log" 2>&1 &
   server_pid=$!
   for _ in $(seq 1 60); do curl -sf "$KW_BASE_URL/signin" >/dev/null && break; sleep 0.5; done
-  if [ "$only" = all ] || [ "$only" = api ]; then echo "[test] api"; npx vitest run --project api; fi
-  if [ "$only" = all ] || [ "$only" = browser ]; then echo "[test] browser"; npx playwright test; fi
+  if want api; then echo "[test] api"; npx vitest run --project api; fi
+  if want browser; then echo "[test] browser"; npx playwright test; fi
 fi
-if [ "$only" = all ] || [ "$only" = reliability ]; then
+if want reliability; then
   # bounded: a hung step fails instead of holding the run (its cluster and server are stopped by the suite's teardown)
   echo "[test] reliability"; timeout --kill-after=30 1200 npx vitest run --project reliability
 fi

@@ -37,7 +37,7 @@ export function parseDay(text: string): string | null {
   return `${String(y).padStart(4, '0')}-${String(m).padStart(2, '0')}-${String(d).padStart(2, '0')}`
 }
 
-/** "2026-12-02" -> "2 Dec 2026" (the app's own day format, composables/dates.ts formatDay, without locale data). */
+/** "2026-12-02" -> "2 Dec 2026" (the app's own day format, utils/date-format.ts formatDay, without locale data). */
 export function dayText(day: string): string {
   const [y, m, d] = day.split('-').map(Number)
   return `${d} ${MONTHS[m! - 1]} ${y}`

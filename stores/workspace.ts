@@ -6,11 +6,12 @@ import type { Role } from '#shared/permissions'
 export const useWorkspaceStore = defineStore('workspace', () => {
   const me = ref<MeDto | null>(null)
   const loaded = ref(false)
+  const api = useApi()
 
   async function load(force = false) {
     if (loaded.value && !force) return me.value
     try {
-      me.value = await useRequestFetch()<MeDto>('/api/me')
+      me.value = await api<MeDto>('/api/me')
     } catch (e) {
       // the database is out of reach for a moment: show that (503), not the sign-in page
       if (apiErrorCode(e) === 'service-unavailable') throw createError({ statusCode: 503, statusMessage: apiErrorMessage(e), fatal: true })

@@ -1,5 +1,6 @@
 import type { Dec, DecimalCtor } from './decimal'
 import { commonScale, pow10, roundScaled, toScaled } from './exact'
+import { residualPrecision } from './precision'
 
 /**
  * A symmetric band matrix of half-bandwidth m: lower[i][k] = A[i][i - k], k = 0..m (k = 0 is the diagonal; entries
@@ -83,7 +84,7 @@ export function residualBand(A: SymmetricBand, u: Dec[], b: Dec[], D: DecimalCto
 
 function residualRounded(A: SymmetricBand, u: Dec[], b: Dec[], D: DecimalCtor): Dec[] {
   const { n, m, lower } = A
-  const R = D.clone({ precision: 2 * D.precision })
+  const R = D.clone({ precision: residualPrecision(D.precision) })
   return b.map((bi, i) => {
     let v = new R(bi)
     for (let j = Math.max(0, i - m); j <= Math.min(n - 1, i + m); j += 1) v = v.minus(new R(j <= i ? lower[i]![i - j]! : lower[j]![j - i]!).times(u[j]!))

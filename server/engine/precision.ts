@@ -18,7 +18,7 @@ import { DEFAULT_PRECISION, MAX_PRECISION, MIN_PRECISION } from './types'
  *   - inverse transform (exp, ln at W): at most TRANSFORM_DIGITS = 2 (exp and ln are faithfully rounded, and an absolute
  *     error e in v becomes a relative error e in exp(v): |v| < 100 on any table costs 2 digits);
  *   - graduation (graduate.ts): a band solve of (W + h K'K) u = W y loses up to log10(condition) digits, which a large h
- *     makes large; iterative refinement (the residual computed exactly, the correction from the same factors) recovers them until the
+ *     makes large; iterative refinement (the residual formed in residualPrecision(W) digits, the correction from the same factors) recovers them until the
  *     correction is below 10^-(p + MARGIN_DIGITS + 1) of the largest value, or refuses as ill-conditioned;
  *   - sums over a table in the money view (l_x products, annuity sums, up to 1,000 terms): at most 4, inside the same budget;
  *   - dense solves of a matrix that may be ill-conditioned (Smith-Wilson's Wilson matrix, smith-wilson.ts): solved at
@@ -57,6 +57,15 @@ export const DENSE_SOLVE_DIGITS = 20
 /** Digits a dense solve runs at for results wanted at `digits`. */
 export function denseSolvePrecision(digits: number): number {
   return digits + DENSE_SOLVE_DIGITS
+}
+
+/**
+ * Digits in which a residual b - A u of numbers held to `digits` is formed before it is rounded back (the graduation's
+ * iterative refinement, banded.ts): each product of two such numbers is exact in twice the digits, so only the few sums
+ * along a band row round, far below the correction being sought.
+ */
+export function residualPrecision(digits: number): number {
+  return 2 * digits
 }
 
 /** Digits carried by an elementary function (ln) while it iterates, beyond its result's. */

@@ -5,7 +5,7 @@ import { specRows, type SpecLike } from '#shared/fill-words'
 import { checkRows, verdictOf } from '#shared/check-words'
 import { VALUE_NAMES, axisHeading, valueHeading, type Axis, type AxisUnit, type TableKind, type ValueUnit } from '#shared/tables'
 import { csvText, type CsvCell } from './csv'
-import { escaped, readableSheets, type ReadableRecord } from './signing/readable'
+import { SHEET_V2, escaped, readableSheets, type ReadableRecord } from './signing/readable'
 import type { CellValue, SheetModel } from './signing/workbook-model'
 
 // Unsigned working files: a version's chosen fill, and a comparison on the fill bench, as CSV and .xlsx. Every file says
@@ -26,9 +26,12 @@ export function fillCsv(r: ReadableRecord, banner: string): string {
   return csvText([[banner], [CAUTION], [], header, ...rows])
 }
 
+// Excel allows 31 characters in a sheet name: "About this table, not signed off" would lose its last letter
+const UNSIGNED_SHEET: Partial<Record<string, string>> = { [SHEET_V2.about]: 'About this copy' }
+
 /** The readable sheets of the version (as the signed workbook has them), renamed and headed "not signed off". */
 export function fillSheets(r: ReadableRecord, banner: string): SheetModel[] {
-  return readableSheets(r, [banner], []).map(s => ({ ...s, name: `${s.name}, ${NOT_SIGNED}`.slice(0, 31) }))
+  return readableSheets(r, [banner], []).map(s => ({ ...s, name: `${UNSIGNED_SHEET[s.name] ?? s.name}, ${NOT_SIGNED}` }))
 }
 
 interface Compared { labels: string[], xs: string[], columns: string[][], knots: Set<string> }

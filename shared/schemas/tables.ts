@@ -3,7 +3,7 @@ import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFits
 import { MAX_SIGNIFICANT_DIGITS, canonicalDecimal, parseNumberText } from '../decimal-text'
 import { COMPOUNDING_IDS } from '../engine/contract'
 
-// Shared by the points grid (vee-validate through composables/zodForm.ts) and the handlers.
+// Shared by the points grid (vee-validate through utils/zod-form.ts) and the handlers.
 export const decimalText = z.string().trim()
   .min(1, { message: 'Enter a number' })
   .max(60, { message: `Use at most ${MAX_SIGNIFICANT_DIGITS} significant digits` })

@@ -92,7 +92,7 @@ export async function freshOrg(name = `Test Org ${randomBytes(3).toString('hex')
   const password = 'correct horse battery staple'
   const asked = await client.post('/api/auth/signup', { email })
   if (asked.status !== 202) throw new Error(`signup answered ${asked.status}: ${JSON.stringify(asked.body)}`)
-  const token = tokenIn(await waitForMail(email, 'Finish creating'), '/confirm-signup')
+  const token = tokenIn(await waitForMail(email, 'Finish creating'), '/confirm-signup', base)
   const r = await client.post<{ memberships: { org: { slug: string; id: string } }[] }>('/api/auth/signup/complete', { token, name: 'Test Admin', password, organisation: name })
   if (r.status !== 201) throw new Error(`signup/complete answered ${r.status}: ${JSON.stringify(r.body)}`)
   return { client, email, password, slug: r.body.memberships[0]!.org.slug, orgId: r.body.memberships[0]!.org.id }

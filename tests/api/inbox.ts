@@ -21,9 +21,9 @@ export async function mailsTo(to: string): Promise<Mail[]> {
   return await (await fetch(`${INBOX}/messages?${new URLSearchParams({ to })}`)).json() as Mail[]
 }
 
-/** The token at the end of a link to the given path in a mail's text (e.g. /invitations/<token>). */
-export function tokenIn(mail: Mail, path: string): string {
-  const m = new RegExp(`${APP.replace(/[.:/]/g, '\\$&')}${path}/([A-Za-z0-9_-]+)`).exec(mail.text)
+/** The token at the end of a link to the given path on the app's address (`app`: another node's) in a mail's text (e.g. /invitations/<token>). */
+export function tokenIn(mail: Mail, path: string, app = APP): string {
+  const m = new RegExp(`${app.replace(/[.:/]/g, '\\$&')}${path}/([A-Za-z0-9_-]+)`).exec(mail.text)
   if (!m) throw new Error(`no ${path} link in: ${mail.text}`)
   return m[1]!
 }

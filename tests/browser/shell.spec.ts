@@ -1,5 +1,5 @@
 import { expect, test } from './fixtures'
-import { PEOPLE, shot, signIn, useOwnAddress } from './helpers'
+import { PASSWORD, PEOPLE, shot, signIn, useOwnAddress } from './helpers'
 
 test('the sign-in page explains itself and shows the caution', async ({ page }) => {
   await useOwnAddress(page)
@@ -69,4 +69,26 @@ test('another organisation answers 404', async ({ page }) => {
   await signIn(page, PEOPLE.admin)
   const response = await page.goto('/orgs/fenwick-rowe')
   expect(response?.status()).toBe(404)
+})
+
+test('a session ended elsewhere sends the person to sign in, and back to the page after', async ({ page }) => {
+  await signIn(page, PEOPLE.auditor)
+  await page.goto('/account')
+  await expect(page.getByRole('heading', { name: 'Your account' })).toBeVisible()
+  // The session ends on the server (signed out in another tab) while this page keeps the old cookie
+  const cookies = await page.context().cookies()
+  const ended = await page.request.post('/api/auth/logout', { headers: { origin: new URL(page.url()).origin } })
+  expect(ended.status()).toBe(200)
+  await page.context().addCookies(cookies)
+  // A wrong current password: with a live session this would stay here with "does not match"
+  await page.getByLabel('Current password').fill('not the current password')
+  await page.getByLabel('New password').fill('a-new-password-of-length')
+  await page.getByRole('button', { name: 'Change password' }).click()
+  await page.waitForURL(/\/signin\?/)
+  expect(new URL(page.url()).searchParams.get('next')).toBe('/account')
+  await page.getByLabel('E-mail').fill(PEOPLE.auditor)
+  await page.getByLabel('Password').fill(PASSWORD)
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await expect(page).toHaveURL(/\/account$/)
+  await expect(page.getByRole('heading', { name: 'Your account' })).toBeVisible()
 })

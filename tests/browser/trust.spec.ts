@@ -69,13 +69,13 @@ test('a fill fitted on other points blocks Submit with a reason; choosing it aga
   const [xlsx] = await Promise.all([page.waitForEvent('download'), page.getByTestId('fill-download-xlsx').click()])
   const wb = new ExcelJS.Workbook()
   await wb.xlsx.load(await readFile(await xlsx.path()) as unknown as ArrayBuffer)
-  expect(wb.worksheets.map(w => w.name)).toEqual(['Filled values, not signed off', 'Given points, not signed off', 'About this table, not signed off'])
-  expect(String(wb.getWorksheet('About this table, not signed off')!.getCell('A2').value)).toMatch(/^NOT SIGNED OFF/)
+  expect(wb.worksheets.map(w => w.name)).toEqual(['Filled values, not signed off', 'Given points, not signed off', 'About this copy, not signed off'])
+  expect(String(wb.getWorksheet('About this copy, not signed off')!.getCell('A2').value)).toMatch(/^NOT SIGNED OFF/)
   await shot(page, 'trust-table-fill-values')
 
   // a given point changes after the fill was chosen
   const version = await (await page.request.get(`/api/orgs/${ORG}/tables/${tableId}/versions/1`)).json() as { lockVersion: number, points: { x: string, y: string }[] }
-  const saved = await page.request.put(`/api/orgs/${ORG}/tables/${tableId}/versions/1/points`, { data: { lockVersion: version.lockVersion, points: version.points.map(p => (p.x === '70' ? { ...p, y: '0.02' } : p)) } })
+  const saved = await page.request.put(`/api/orgs/${ORG}/tables/${tableId}/versions/1/points`, { headers: { origin: new URL(page.url()).origin }, data: { lockVersion: version.lockVersion, points: version.points.map(p => (p.x === '70' ? { ...p, y: '0.02' } : p)) } })
   expect(saved.status()).toBe(200)
   await tablePage(page)
   await expect(page.getByTestId('fill-stale')).toBeVisible()

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { dayText, formatUtc, groupThousands, parseDay } from '#shared/plain-text'
 
-// The app's own day format ("2 Dec 2026", composables/dates.ts) read and written without locale data.
+// The app's own day format ("2 Dec 2026", utils/date-format.ts) read and written without locale data.
 describe('plain text for signed files and the audit filter', () => {
   it('groups thousands and writes instants in UTC the same everywhere', () => {
     expect([groupThousands(0), groupThousands(999), groupThousands(1234567), groupThousands(-12345.5)]).toEqual(['0', '999', '1,234,567', '-12,345.5'])

@@ -1,10 +1,10 @@
-import { emit, previousAttributes, type Ctx } from '../context.ts'
+import { created, emit, updateRoute, type Ctx } from '../context.ts'
 import { invalid } from '../errors.ts'
 import { newId, randomToken } from '../ids.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, optInt, optNullableString, optObject, optString } from '../params.ts'
 import { resourceRoutes, type Route } from '../route.ts'
-import { clone, type Obj } from '../store.ts'
+import type { Obj } from '../store.ts'
 import { attachPaymentMethod } from './payment_methods.ts'
 import { cancelSubscriptionNow } from '../billing/lifecycle.ts'
 
@@ -49,20 +49,10 @@ function create(ctx: Ctx): Obj {
   ctx.store.insert(c)
   const pmParam = optString(ctx.body, 'payment_method')
   if (pmParam) attachPaymentMethod(ctx, pmParam, c.id, 'payment_method')
-  applyFields(ctx, c)
-  emit(ctx, 'customer.created', c)
-  return c
+  return created(ctx, 'customer', c, applyFields)
 }
 
-function update(ctx: Ctx): Obj {
-  allowOnly(ctx.body, FIELDS)
-  const c = ctx.store.require('customers', ctx.params.id!, 'customer')
-  const before = clone(c)
-  applyFields(ctx, c)
-  const prev = previousAttributes(before, c)
-  if (prev) emit(ctx, 'customer.updated', c, prev)
-  return c
-}
+const update = updateRoute('customers', 'customer', FIELDS, applyFields, true)
 
 function remove(ctx: Ctx): Obj {
   const c = ctx.store.require('customers', ctx.params.id!, 'customer')

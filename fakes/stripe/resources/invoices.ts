@@ -1,9 +1,9 @@
-import { emit, previousAttributes, type Ctx } from '../context.ts'
+import { emit, updateObject, type Ctx } from '../context.ts'
 import { invalid } from '../errors.ts'
 import { createdFilter, listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, optBool, optEnum, optNullableString, optString, reqString } from '../params.ts'
 import { resourceRoutes, type Route } from '../route.ts'
-import { clone, type Obj } from '../store.ts'
+import type { Obj } from '../store.ts'
 import { pullPendingItems } from '../billing/invoice_items.ts'
 import { finalizeInvoice, invoiceSubscription, newInvoice, recomputeTotals } from '../billing/invoices.ts'
 import { markPaid, attemptPayment } from '../billing/payment.ts'
@@ -35,16 +35,15 @@ function create(ctx: Ctx): Obj {
 function update(ctx: Ctx): Obj {
   allowOnly(ctx.body, ['description', 'metadata', 'auto_advance', 'default_payment_method'])
   const inv = get(ctx)
-  const before = clone(inv)
   if (inv.status !== 'draft' && Object.keys(ctx.body).some((k) => k !== 'metadata' && k !== 'expand')) throw invalid('Finalized invoices can only update metadata (in this fake).')
-  const d = optNullableString(ctx.body, 'description')
-  if (d !== undefined) inv.description = d
-  inv.auto_advance = optBool(ctx.body, 'auto_advance') ?? inv.auto_advance
-  inv.metadata = applyMetadata(inv.metadata, ctx.body.metadata)
-  const pm = optNullableString(ctx.body, 'default_payment_method')
-  if (pm !== undefined) inv.default_payment_method = pm && attachedPaymentMethod(ctx, inv.customer, pm, 'default_payment_method')
-  emit(ctx, 'invoice.updated', inv, previousAttributes(before, inv))
-  return inv
+  return updateObject(ctx, inv, 'invoice.updated', (o) => {
+    const d = optNullableString(ctx.body, 'description')
+    if (d !== undefined) o.description = d
+    o.auto_advance = optBool(ctx.body, 'auto_advance') ?? o.auto_advance
+    o.metadata = applyMetadata(o.metadata, ctx.body.metadata)
+    const pm = optNullableString(ctx.body, 'default_payment_method')
+    if (pm !== undefined) o.default_payment_method = pm && attachedPaymentMethod(ctx, o.customer, pm, 'default_payment_method')
+  })
 }
 
 function finalize(ctx: Ctx): Obj {

@@ -1,11 +1,11 @@
-import { emit, previousAttributes, type Ctx } from '../context.ts'
+import { emit, updateObject, type Ctx } from '../context.ts'
 import { CARD_TOKENS, PM_TOKENS, cardBehaviour, cardFingerprint, validateCard } from '../cards.ts'
 import { invalid, missing } from '../errors.ts'
 import { newId } from '../ids.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, optEnum, optInt, optObject, optString, reqString } from '../params.ts'
 import { resourceRoutes, type Route } from '../route.ts'
-import { clone, type Obj } from '../store.ts'
+import type { Obj } from '../store.ts'
 
 export function createCardPaymentMethod(ctx: Ctx, number: string, expMonth: number, expYear: number, billing: Obj = {}): Obj {
   validateCard(number, expMonth, expYear, ctx.now())
@@ -70,18 +70,17 @@ function create(ctx: Ctx): Obj {
 function update(ctx: Ctx): Obj {
   allowOnly(ctx.body, ['metadata', 'billing_details', 'card'])
   const pm = ctx.store.require('payment_methods', ctx.params.id!, 'PaymentMethod')
-  const before = clone(pm)
-  pm.metadata = applyMetadata(pm.metadata, ctx.body.metadata)
-  const billing = optObject(ctx.body, 'billing_details')
-  if (billing) for (const k of ['email', 'name', 'phone']) if (billing[k] !== undefined) pm.billing_details[k] = billing[k] || null
-  const card = optObject(ctx.body, 'card')
-  if (card) {
-    allowOnly(card, ['exp_month', 'exp_year'])
-    pm.card.exp_month = optInt(card, 'exp_month', 'card[exp_month]') ?? pm.card.exp_month
-    pm.card.exp_year = optInt(card, 'exp_year', 'card[exp_year]') ?? pm.card.exp_year
-  }
-  emit(ctx, 'payment_method.updated', pm, previousAttributes(before, pm))
-  return pm
+  return updateObject(ctx, pm, 'payment_method.updated', (o) => {
+    o.metadata = applyMetadata(o.metadata, ctx.body.metadata)
+    const billing = optObject(ctx.body, 'billing_details')
+    if (billing) for (const k of ['email', 'name', 'phone']) if (billing[k] !== undefined) o.billing_details[k] = billing[k] || null
+    const card = optObject(ctx.body, 'card')
+    if (card) {
+      allowOnly(card, ['exp_month', 'exp_year'])
+      o.card.exp_month = optInt(card, 'exp_month', 'card[exp_month]') ?? o.card.exp_month
+      o.card.exp_year = optInt(card, 'exp_year', 'card[exp_year]') ?? o.card.exp_year
+    }
+  })
 }
 
 function attach(ctx: Ctx): Obj {

@@ -1,10 +1,10 @@
-import { emit, previousAttributes, type Ctx } from '../context.ts'
+import { emit, updateObject, type Ctx } from '../context.ts'
 import { invalid } from '../errors.ts'
 import { newId } from '../ids.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, listParam, optBool, optEnum, optInt, optNullableString, optObject, optString, reqString } from '../params.ts'
 import { resourceRoutes, type Route } from '../route.ts'
-import { clone, type Obj } from '../store.ts'
+import type { Obj } from '../store.ts'
 import { newProduct } from './products.ts'
 
 const INTERVALS = ['day', 'week', 'month', 'year'] as const
@@ -69,19 +69,18 @@ function update(ctx: Ctx): Obj {
   const b = ctx.body
   allowOnly(b, ['active', 'metadata', 'nickname', 'lookup_key', 'transfer_lookup_key'])
   const price = ctx.store.require('prices', ctx.params.id!, 'price')
-  const before = clone(price)
-  const active = optBool(b, 'active')
-  if (active !== undefined) price.active = active
-  const nickname = optNullableString(b, 'nickname')
-  if (nickname !== undefined) price.nickname = nickname
-  const lookupKey = optNullableString(b, 'lookup_key')
-  if (lookupKey !== undefined && lookupKey !== price.lookup_key) {
-    takeLookupKey(ctx, lookupKey, optBool(b, 'transfer_lookup_key') ?? false)
-    price.lookup_key = lookupKey
-  }
-  price.metadata = applyMetadata(price.metadata, b.metadata)
-  emit(ctx, 'price.updated', price, previousAttributes(before, price))
-  return price
+  return updateObject(ctx, price, 'price.updated', (o) => {
+    const active = optBool(b, 'active')
+    if (active !== undefined) o.active = active
+    const nickname = optNullableString(b, 'nickname')
+    if (nickname !== undefined) o.nickname = nickname
+    const lookupKey = optNullableString(b, 'lookup_key')
+    if (lookupKey !== undefined && lookupKey !== o.lookup_key) {
+      takeLookupKey(ctx, lookupKey, optBool(b, 'transfer_lookup_key') ?? false)
+      o.lookup_key = lookupKey
+    }
+    o.metadata = applyMetadata(o.metadata, b.metadata)
+  })
 }
 
 function list(ctx: Ctx): Obj {

@@ -1,9 +1,9 @@
-import { emit, previousAttributes, type Ctx } from '../context.ts'
+import { created, updateRoute, type Ctx } from '../context.ts'
 import { newId } from '../ids.ts'
 import { listResponse } from '../list.ts'
 import { allowOnly, applyMetadata, optBool, optNullableString, reqString } from '../params.ts'
 import { resourceRoutes, type Route } from '../route.ts'
-import { clone, type Obj } from '../store.ts'
+import type { Obj } from '../store.ts'
 
 export function newProduct(ctx: Ctx, name: string): Obj {
   const now = ctx.now()
@@ -35,21 +35,14 @@ function create(ctx: Ctx): Obj {
     p.id = id
     ctx.store.insert(p)
   }
-  applyFields(ctx, p)
-  emit(ctx, 'product.created', p)
-  return p
+  return created(ctx, 'product', p, applyFields)
 }
 
-function update(ctx: Ctx): Obj {
-  allowOnly(ctx.body, FIELDS)
-  const p = ctx.store.require('products', ctx.params.id!, 'product')
-  const before = clone(p)
+const update = updateRoute('products', 'product', FIELDS, (ctx, p) => {
   if (ctx.body.name !== undefined) p.name = reqString(ctx.body, 'name')
   applyFields(ctx, p)
   p.updated = ctx.now()
-  emit(ctx, 'product.updated', p, previousAttributes(before, p))
-  return p
-}
+})
 
 function list(ctx: Ctx): Obj {
   allowOnly(ctx.body, ['active', 'limit', 'starting_after', 'ending_before', 'ids'])

@@ -1,5 +1,7 @@
 import type { Axis } from '#shared/tables'
 
+// How axis values and table values read on screen (the exact text stays in the grid and in titles).
+
 /** An axis value as people read it: terms on a monthly grid as years and months ("0.3333 (4 m)"), not 0.333333333333. */
 export function axisText(x: string, axis: Axis): string {
   return axis === 'term' && x.length > 8 ? `${Number(Number(x).toFixed(4))} (${Math.round(Number(x) * 12)} m)` : x
