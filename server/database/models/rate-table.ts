@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 import type { Axis, AxisUnit, TableKind, ValueUnit } from '#shared/tables'
+import type { Compounding } from '#shared/engine/contract'
 
 export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAttributes<RateTable>> {
   declare id: CreationOptional<string>
@@ -9,6 +10,8 @@ export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAt
   declare axis: Axis
   declare axisUnit: CreationOptional<AxisUnit>
   declare valueUnit: CreationOptional<ValueUnit>
+  /** How a curve's spot rates compound (migration 1102); annual for every other kind. */
+  declare compounding: CreationOptional<Compounding>
   declare description: CreationOptional<string>
   declare tags: CreationOptional<string[]>
   declare createdBy: string | null
@@ -24,6 +27,7 @@ export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAt
       axis: { type: DataTypes.TEXT, allowNull: false },
       axisUnit: { type: DataTypes.TEXT, defaultValue: 'years' },
       valueUnit: { type: DataTypes.TEXT, defaultValue: 'per-unit' },
+      compounding: { type: DataTypes.TEXT, defaultValue: 'annual' },
       description: { type: DataTypes.TEXT, defaultValue: '' },
       tags: { type: DataTypes.ARRAY(DataTypes.TEXT), defaultValue: [] },
       createdBy: { type: DataTypes.UUID, allowNull: true },

@@ -1,5 +1,5 @@
 import type { TaskContext } from './context'
-import { compareTask, fillTask } from './engine'
+import { compareTask, fillTask, graduateTask } from './engine'
 import { describeTask, previewTask, readUploadTask, validateTask } from './imports'
 import { buildExportTask, signBodyTask, verifyExportTask } from './signing'
 
@@ -11,6 +11,7 @@ import { buildExportTask, signBodyTask, verifyExportTask } from './signing'
 export const TASKS = {
   compare: compareTask,
   fill: fillTask,
+  graduate: graduateTask,
   readUpload: readUploadTask,
   describeImport: describeTask,
   previewImport: previewTask,
