@@ -126,6 +126,9 @@ test('a curve states its compounding, and Smith-Wilson on the bench shows its ca
   await page.locator('#bench-add').selectOption({ label: 'Smith-Wilson (to an ultimate forward rate)' })
   await page.getByRole('button', { name: 'Add', exact: true }).click()
   await expect(page.getByTestId('option-smith-wilson-ufr')).toHaveValue('0.035')
+  // options whose default is a rule read as words, not as the engine's keywords
+  await expect(page.getByTestId('option-smith-wilson-alpha-rule').locator('option:checked')).toHaveText('Calibrated (the smallest that converges)')
+  await expect(page.getByTestId('option-smith-wilson-llp-rule').locator('option:checked')).toHaveText('The last given term')
   await page.getByTestId('bench-compare').click()
   await waitForRun(page)
   const c = page.getByTestId('bench-convergence').locator('li[data-method="Smith-Wilson (to an ultimate forward rate)"]')
