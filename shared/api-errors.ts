@@ -10,6 +10,8 @@ export const API_ERROR_CODES = [
   'import-refused', // an uploaded file was refused (kind, size, structure)
   'import-blocked', // the upload's values have blocking findings (data.findings)
   'import-warnings', // warnings must be accepted first (data.findings)
+  'not-graduated-kind', // graduation is for rates from experience (mortality, lapse, salary), not curves
+  'graduation-out-of-range', // a graduated value breaks the table's range rule (q below 0, say): not made a draft
   // who is asking
   'sign-in-required',
   'session-ended',

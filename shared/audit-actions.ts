@@ -31,6 +31,7 @@ const LABELS: Record<string, string> = {
   'version.create': 'Version created',
   'version.points.save': 'Draft points saved',
   'version.fill.save': 'Fill chosen',
+  'version.graduate': 'Graduated into a new draft',
   'version.submit': 'Submitted for second check',
   'version.approve': 'Signed off',
   'version.send-back': 'Sent back',

@@ -86,6 +86,7 @@ export function describeAuditEvent(e: AuditFacts, names: AuditNames, methods: re
       const method = listing ? methodWords(listing, str(d.method), (d.options ?? {}) as Record<string, string>) : str(d.label) || str(d.method)
       return `Chose ${method} as the fill of ${version} (${plural(Number(d.points ?? 0), 'value')}). Reasons: ${quote(d.rationale)}`
     }
+    case 'version.graduate': return `Graduated version ${str(d.from)} into ${version} by Whittaker-Henderson (order ${str(d.order)}, smoothing ${str(d.smoothing)}, weights ${d.weights === 'exposure' ? 'from exposures' : d.weights === 'one' ? 'equal' : str(d.weights)}). Reasons: ${quote(d.rationale)}`
     case 'version.submit': return `Submitted ${version} for a second check${d.note ? `: ${quote(d.note)}` : '.'}`
     case 'version.approve':
       if (e.outcome !== 'ok') return `Tried to sign off ${version}; refused, because they made, filled or submitted it.`

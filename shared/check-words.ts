@@ -1,6 +1,6 @@
 // The checks of a fill (docs/domain.md#checks) in plain words, with values in the table's unit: one wording for the fill
 // bench, the table page and the signed workbook. Each row says what the check means and why it matters.
-import type { Diagnostics, Span } from './engine/contract'
+import type { ClosureReport, ConvergenceReport, Diagnostics, Span } from './engine/contract'
 import { UNIT_SCALE } from './decimal-text'
 import type { TableKind, ValueUnit } from './tables'
 
@@ -92,4 +92,43 @@ export function checkRows(kind: TableKind, unit: ValueUnit = 'per-unit'): CheckR
 /** A check's verdict, or a plain "not recorded" for fills saved before the check existed (older diagnostics). */
 export function verdictOf(row: CheckRow, d: Diagnostics): { good: boolean, text: string } | null {
   try { return row.verdict(d) } catch { return null }
+}
+
+const LAW_NAMES: Record<ClosureReport['law'], string> = { gompertz: 'Gompertz law', kannisto: 'Kannisto law' }
+
+/**
+ * The old-age closure of a fill in words (not one of checkRows: that list is part of signed format 2). Good when the law
+ * fits the oldest given ages within 5 % on the hazard scale and meets the last given age within a tenth of its q.
+ */
+export function closureVerdict(c: ClosureReport, unit: ValueUnit = 'per-unit'): { good: boolean, text: string } {
+  const misfit = Number(c.maxLogHazardResidual)
+  const step = Number(c.lawMinusGivenAtLastAge)
+  const percent = Math.abs(Math.expm1(misfit)) * 100
+  const fit = misfit === 0 ? 'fits them exactly' : percent < 0.01 ? 'fits them within 0.01 % of the hazard' : `fits them within ${short(percent)} % of the hazard`
+  const join = step === 0 ? 'meets the last given age exactly' : `is ${inUnit(Math.abs(step), unit)} ${step > 0 ? 'above' : 'below'} the given q at the last given age`
+  return {
+    good: misfit <= 0.05,
+    text: `${LAW_NAMES[c.law]} fitted to ${plural(c.fitAges, 'given age')} from ${fx(c.fitFrom)} to ${fx(c.fitTo)}: it ${fit} and ${join}; q reaches 1 at age ${fx(c.terminalAge)}.`,
+  }
+}
+
+/** A continuously compounded intensity as a percentage, 4 decimals: "3.4401 %". */
+const pct = (v: string) => `${(Number(v) * 100).toFixed(4)} %`
+/** A gap of intensities in basis points, 6 significant digits (a calibrated alpha sits just inside 1 bp, one step lower just outside). */
+const bp = (v: string) => `${String(Number((Number(v) * 10_000).toPrecision(6)))} bp`
+
+/**
+ * Smith-Wilson's convergence check in words (the regulator's rule: the forward at the convergence point within 1 basis point
+ * of the ultimate forward intensity ln(1 + UFR), alpha at least 0.05). `calibrated`: alpha was 'auto'. Not one of checkRows
+ * (that list is part of signed format 2).
+ */
+export function convergenceVerdict(c: ConvergenceReport, calibrated: boolean): { good: boolean, text: string } {
+  const at = `At ${fx(c.convergencePoint)} years (the convergence point) the forward intensity is ${pct(c.forwardIntensity)} against the ultimate ${pct(c.ultimateIntensity)} (ln(1 + UFR)): ${bp(c.gap)} apart, ${c.met ? 'within' : 'more than'} the ${bp(c.tolerance)} allowed.`
+  const alpha = calibrated
+    ? `Alpha ${c.alpha}, calibrated: the smallest alpha of at least 0.05 for which the forward at the convergence point comes within ${bp(c.tolerance)} of the ultimate forward rate.`
+    : `Alpha ${c.alpha}, as given.`
+  const below = c.below
+    ? ` One step lower, alpha ${c.below.alpha} would leave ${bp(c.below.gap)}${c.below.met ? ', also within the limit: a smaller alpha would do' : ', outside the limit: no smaller alpha passes'}.`
+    : calibrated ? ' Alpha is at its floor of 0.05.' : ''
+  return { good: c.met, text: `${alpha} ${at}${below}` }
 }

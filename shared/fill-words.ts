@@ -56,6 +56,19 @@ export function gridWords(spec: SpecLike, pointCount?: number): string {
   return '—'
 }
 
+/**
+ * The old-age closure's settings in words: "Terminal age: 120", "Law fitted to the given ages: 95 to 110". Kept out of
+ * specRows, whose wording is part of signed format 2 (the closure's options are in the signed spec itself).
+ */
+export function closureRows(spec: { extrapolation?: string, extrapolationOptions?: Record<string, string> | null }): WordRow[] {
+  const o = spec.extrapolationOptions
+  if (!o || !spec.extrapolation || !['gompertz', 'kannisto'].includes(spec.extrapolation)) return []
+  return [
+    { label: 'Terminal age', value: `${o.terminalAge} (q = 1 from there)` },
+    { label: 'Law fitted to the given ages', value: `${o.fitFrom} to ${o.fitTo}` },
+  ]
+}
+
 /** A stored fill spec as rows of words, in the order a reviewer reads them. */
 export function specRows(spec: SpecLike, methods: readonly MethodListing[], transforms: readonly TransformListing[], pointCount?: number): WordRow[] {
   const listing = methods.find(m => m.id === spec.method)

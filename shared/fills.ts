@@ -1,6 +1,6 @@
 // Choices of the fill bench that both the form and the server know. The vocabulary itself (method, transform and
 // extrapolation ids) is the engine's contract, shared/engine/contract.ts.
-import { EXTRAPOLATION_RULES, type ExtrapolationRule, type MethodId } from './engine/contract'
+import { CLOSURE_RULES, EXTRAPOLATION_KINDS, EXTRAPOLATION_RULES, type ClosureRule, type ExtrapolationRule, type MethodId, type TableKind } from './engine/contract'
 
 export { EXTRAPOLATION_RULES }
 
@@ -13,6 +13,18 @@ export const EXTRAPOLATION_LABELS: Record<ExtrapolationRule, string> = {
   kannisto: 'Close old ages with a fitted Kannisto law (mortality)',
   method: 'Let the method carry on by its own rule',
 }
+
+/** The extrapolation rules offered for a table of this kind (the engine refuses the others). */
+export const extrapolationRulesFor = (kind: TableKind): ExtrapolationRule[] => EXTRAPOLATION_RULES.filter(r => EXTRAPOLATION_KINDS[r].includes(kind))
+export const isClosureRule = (rule: string): rule is ClosureRule => (CLOSURE_RULES as readonly string[]).includes(rule)
+
+/** The old-age closure's options in words; blank means the engine's default (said in `blank`). */
+export const CLOSURE_OPTIONS = [
+  { name: 'terminalAge', label: 'Terminal age', blank: '120', description: 'Age at which q reaches 1: the closed table ends here.' },
+  { name: 'fitFrom', label: 'Fit the law from age', blank: '15 years below the last given age', description: 'Youngest given age the law is fitted to.' },
+  { name: 'fitTo', label: 'Fit the law up to age', blank: 'the last given age', description: 'Oldest given age the law is fitted to.' },
+] as const
+export type ClosureOptionName = (typeof CLOSURE_OPTIONS)[number]['name']
 
 /** Preselected on the bench: the three methods whose contrast matters most. */
 export const DEFAULT_BENCH_METHODS: MethodId[] = ['linear', 'quadratic', 'cubic-natural']

@@ -11,6 +11,13 @@ export const KIND_LABELS: Record<TableKind, string> = {
   'other': 'Other',
 }
 
+/** How a curve's spot rates compound, in words (curve kinds only). */
+export const COMPOUNDING_WORDS: Record<'annual' | 'continuous' | 'semi-annual', string> = {
+  'annual': 'Annual compounding',
+  'semi-annual': 'Semi-annual compounding',
+  'continuous': 'Continuous compounding',
+}
+
 export const AXES = ['age', 'policy-year', 'term'] as const
 export type Axis = (typeof AXES)[number]
 export const AXIS_LABELS: Record<Axis, string> = { 'age': 'Age', 'policy-year': 'Policy year', 'term': 'Term' }

@@ -22,12 +22,16 @@ export function differenceSeries(res: CompareResponseDto, baseline: string, scal
 }
 
 /**
- * Implied annual forward rate between consecutive grid terms, f = (P(t1)/P(t2))^(1/(t2 - t1)) - 1,
- * with P(t) = (1 + r(t))^-t for annual spot rates (Hull, Options, Futures and Other Derivatives, ch. 4), or the
- * discount factor itself; drawn at the start of each interval. The engine's forward check uses the same convention.
+ * Implied forward rate between consecutive grid terms in the table's compounding (Hull, Options, Futures and Other
+ * Derivatives, ch. 4): with g = P(t1)/P(t2) and h = t2 - t1, annual g^(1/h) - 1, semi-annual 2 (g^(1/(2h)) - 1),
+ * continuous ln(g) / h; P(t) = (1 + r)^-t, (1 + r/2)^-2t or e^(-r t) for spot rates, or the discount factor itself; drawn
+ * at the start of each interval. The engine's forward check uses the same convention.
  */
 export function forwardSeries(res: CompareResponseDto, scale = 1): ChartSeries[] {
-  const discount = (t: number, y: number) => (res.kind === 'discount-factor' ? y : (1 + y) ** -t)
+  const c = res.compounding ?? 'annual'
+  const spotDiscount = { 'annual': (t: number, r: number) => (1 + r) ** -t, 'semi-annual': (t: number, r: number) => (1 + r / 2) ** (-2 * t), 'continuous': (t: number, r: number) => Math.exp(-r * t) }[c]
+  const discount = (t: number, y: number) => (res.kind === 'discount-factor' ? y : spotDiscount(t, y))
+  const forward = { 'annual': (g: number, h: number) => g ** (1 / h) - 1, 'semi-annual': (g: number, h: number) => 2 * (g ** (1 / (2 * h)) - 1), 'continuous': (g: number, h: number) => Math.log(g) / h }[c]
   return res.result.entries.flatMap((e) => {
     if (!e.ok) return []
     const pts = e.result.points.map(p => [Number(p.x), Number(p.y)] as const)
@@ -35,7 +39,7 @@ export function forwardSeries(res: CompareResponseDto, scale = 1): ChartSeries[]
     for (let k = 0; k + 1 < pts.length; k += 1) {
       const [t1, y1] = pts[k]!
       const [t2, y2] = pts[k + 1]!
-      if (t2 > t1) out.push([t1, ((discount(t1, y1) / discount(t2, y2)) ** (1 / (t2 - t1)) - 1) * scale])
+      if (t2 > t1) out.push([t1, forward(discount(t1, y1) / discount(t2, y2), t2 - t1) * scale])
     }
     return [{ name: e.label, points: out }]
   })

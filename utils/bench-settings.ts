@@ -1,6 +1,7 @@
 // The fill bench's settings and methods as the form holds them, and the compare body made from them (pure: no requests).
 import type { ExtrapolationRule, MethodId, TransformId } from '#shared/engine/contract'
-import { DEFAULT_BENCH_METHODS, MAX_BENCH_METHODS } from '#shared/fills'
+import { CLOSURE_OPTIONS, DEFAULT_BENCH_METHODS, MAX_BENCH_METHODS, isClosureRule, type ClosureOptionName } from '#shared/fills'
+import { offeredMethods } from '#shared/method-scope'
 import type { CompareInput, MethodChoice } from '#shared/schemas/fills'
 import type { MethodListing, StoredFillSpec } from '#shared/types/fills'
 import type { Axis, TableKind } from '#shared/tables'
@@ -13,6 +14,8 @@ export interface BenchSettings {
   grid: { from: string, to: string, step: string }
   transform: TransformId
   extrapolation: ExtrapolationRule
+  /** The old-age closure's options as typed (blank: the engine's default). */
+  closure: Record<ClosureOptionName, string>
   ages: string
   interest: string
 }
@@ -34,11 +37,15 @@ export function defaultSettings(kind: TableKind, axis: Axis, knots: { x: string 
   const step = axis === 'term' ? '1/12' : '1'
   const from = axis === 'term' ? first : String(Math.ceil(Number(first)))
   const to = axis === 'term' ? last : String(Math.floor(Number(last)))
-  return { grid: { from, to, step }, transform: 'none', extrapolation: 'error', ages: kind === 'mortality' ? '65' : '', interest: '0.03' }
+  return { grid: { from, to, step }, transform: 'none', extrapolation: 'error', closure: blankClosure(), ages: kind === 'mortality' ? '65' : '', interest: '0.03' }
 }
 
-export function defaultMethods(listings: MethodListing[]): BenchMethod[] {
-  return DEFAULT_BENCH_METHODS.map(id => listings.find(l => l.id === id)).filter((l): l is MethodListing => !!l).map(newBenchMethod)
+const blankClosure = () => Object.fromEntries(CLOSURE_OPTIONS.map(o => [o.name, ''])) as Record<ClosureOptionName, string>
+
+/** The usual three, less any the bench does not offer for this table (too few points). */
+export function defaultMethods(listings: MethodListing[], kind: TableKind, xs: string[]): BenchMethod[] {
+  const offered = offeredMethods(listings, kind, xs)
+  return DEFAULT_BENCH_METHODS.map(id => offered.find(l => l.id === id)).filter((l): l is MethodListing => !!l).map(newBenchMethod)
 }
 
 /**
@@ -49,7 +56,8 @@ export function defaultMethods(listings: MethodListing[]): BenchMethod[] {
 export function benchFromSaved(settings: BenchSettings, methods: BenchMethod[], spec: StoredFillSpec | undefined, listings: MethodListing[]): { settings: BenchSettings, methods: BenchMethod[] } {
   if (!spec?.bench) return { settings, methods }
   const money = spec.money?.ages?.length ? { ages: spec.money.ages.join(', '), interest: spec.money.interest } : {}
-  const fromSaved = { ...settings, grid: { ...spec.bench.grid }, transform: spec.transform, extrapolation: spec.extrapolation, ...money }
+  const closure = { ...blankClosure(), ...(isClosureRule(spec.extrapolation) ? spec.extrapolationOptions ?? {} : {}) }
+  const fromSaved = { ...settings, grid: { ...spec.bench.grid }, transform: spec.transform, extrapolation: spec.extrapolation, closure, ...money }
   const listing = listings.find(l => l.id === spec.method)
   if (!listing) return { settings: fromSaved, methods }
   const chosen = { ...newBenchMethod(listing), options: { ...newBenchMethod(listing).options, ...spec.options } }
@@ -66,10 +74,16 @@ export function compareBody(settings: BenchSettings, methods: BenchMethod[], lis
     grid: { ...settings.grid },
     transform: settings.transform,
     extrapolation: settings.extrapolation,
+    ...(isClosureRule(settings.extrapolation) ? { extrapolationOptions: closureOptions(settings.closure) } : {}),
     methods: choices,
     ...(baseline && choices.some(c => c.label === baseline) ? { baseline } : {}),
     ...(kind === 'mortality' ? { money: { ...(ages.length ? { ages } : {}), interest: settings.interest } } : {}),
   }
+}
+
+/** The closure options that were typed (blank ones are left to the engine's defaults). */
+function closureOptions(typed: Record<ClosureOptionName, string>): Partial<Record<ClosureOptionName, string>> {
+  return Object.fromEntries(Object.entries(typed).map(([k, v]) => [k, v.trim()]).filter(([, v]) => v !== ''))
 }
 
 export function toChoice(m: BenchMethod, listings: MethodListing[]): MethodChoice {

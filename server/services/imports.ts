@@ -88,9 +88,9 @@ export async function commitImport(event: H3Event, access: OrgAccess, id: string
     const created: ImportCommitDto['tables'] = []
     for (const table of v.tables) {
       const [tr] = await useDb().query<{ id: string }>(
-        `INSERT INTO rate_tables (org_id, name, kind, axis, axis_unit, value_unit, description, tags, created_by)
-         VALUES (:orgId, :name, :kind, :axis, :axisUnit, :valueUnit, :description, ARRAY['imported']::text[], :userId) RETURNING id`,
-        { replacements: { orgId: access.org.id, name: table.name, kind: table.kind, axis: m.axis, axisUnit: m.axisUnit, valueUnit: table.valueUnit, description: m.description, userId: access.user.id }, type: QueryTypes.SELECT, transaction: t })
+        `INSERT INTO rate_tables (org_id, name, kind, axis, axis_unit, value_unit, compounding, description, tags, created_by)
+         VALUES (:orgId, :name, :kind, :axis, :axisUnit, :valueUnit, :compounding, :description, ARRAY['imported']::text[], :userId) RETURNING id`,
+        { replacements: { orgId: access.org.id, name: table.name, kind: table.kind, axis: m.axis, axisUnit: m.axisUnit, valueUnit: table.valueUnit, compounding: m.columns.find(c => c.name === table.name)?.compounding ?? 'annual', description: m.description, userId: access.user.id }, type: QueryTypes.SELECT, transaction: t })
       const [vr] = await useDb().query<{ id: string }>(
         `INSERT INTO table_versions (org_id, table_id, number, status, author_id, notes, content_hash)
          VALUES (:orgId, :tableId, 1, 'draft', :userId, :notes, :hash) RETURNING id`,

@@ -2,6 +2,7 @@ import { QueryTypes } from 'sequelize'
 import type { H3Event } from 'h3'
 import type { OrgAccess } from '../utils/auth'
 import type { TableDto, VersionDto, VersionSummaryDto } from '#shared/types/tables'
+import type { GraduationRecord } from '#shared/types/graduation'
 import type { SavePointsInput, TableUpdateInput } from '#shared/schemas/tables'
 import { checkAxis, checkValue } from '#shared/table-rules'
 import { UNIT_KIND_MESSAGE, unitFitsKind } from '#shared/tables'
@@ -16,7 +17,8 @@ const SUMMARY_SQL = `
   SELECT v.id, v.number, v.status, v.notes, v.content_hash, v.lock_version, v.created_at, v.updated_at,
          u.id AS author_id, u.name AS author_name,
          (SELECT count(*)::int FROM version_points p WHERE p.version_id = v.id)
-           + (SELECT count(*)::int FROM version_grid_points c WHERE c.version_id = v.id) AS point_count
+           + (SELECT count(*)::int FROM version_grid_points c WHERE c.version_id = v.id) AS point_count,
+         v.graduation, (SELECT g.name FROM users g WHERE g.id::text = v.graduation->>'by') AS graduated_by_name
   FROM table_versions v LEFT JOIN users u ON u.id = v.author_id
   WHERE v.org_id = :orgId AND v.table_id = :tableId`
 
@@ -32,7 +34,14 @@ const toSummary = (r: Row): VersionSummaryDto => ({
   pointCount: r.point_count as number,
   createdAt: new Date(r.created_at as string).toISOString(),
   updatedAt: new Date(r.updated_at as string).toISOString(),
+  graduation: graduationRecord(r),
 })
+
+/** How the version was graduated (the graduate step), or null. */
+function graduationRecord(r: Row): GraduationRecord | null {
+  const g = r.graduation as { fromNumber: number, spec: GraduationRecord['spec'], rationale: string, at: string } | null
+  return g ? { fromNumber: g.fromNumber, spec: g.spec, rationale: g.rationale, byName: (r.graduated_by_name as string | null) ?? null, at: g.at } : null
+}
 
 export async function listVersions(orgId: string, tableId: string): Promise<VersionSummaryDto[]> {
   const rows = await useDb().query<Row>(`${SUMMARY_SQL} ORDER BY v.number DESC`, { replacements: { orgId, tableId }, type: QueryTypes.SELECT })
@@ -42,7 +51,7 @@ export async function listVersions(orgId: string, tableId: string): Promise<Vers
 export async function describeTable(orgId: string, tableId: string): Promise<TableDto> {
   const t = await findTable(orgId, tableId)
   return {
-    id: t.id, name: t.name, kind: t.kind, axis: t.axis, axisUnit: t.axisUnit, valueUnit: t.valueUnit,
+    id: t.id, name: t.name, kind: t.kind, axis: t.axis, axisUnit: t.axisUnit, valueUnit: t.valueUnit, compounding: t.compounding,
     shape: t.shape, colAxis: t.colAxis ?? null, colAxisUnit: t.colAxisUnit ?? null, hasUltimate: t.hasUltimate,
     description: t.description, tags: t.tags, createdAt: t.createdAt.toISOString(), updatedAt: t.updatedAt.toISOString(),
     versions: await listVersions(orgId, tableId),
@@ -57,20 +66,20 @@ export async function getVersion(orgId: string, tableId: string, number: number)
 
 export async function updateTable(event: H3Event, access: OrgAccess, tableId: string, input: TableUpdateInput): Promise<TableDto> {
   const table = await findTable(access.org.id, tableId)
-  const meaning = (['kind', 'axis', 'axisUnit', 'valueUnit'] as const).filter(k => input[k] !== undefined && input[k] !== table[k])
+  const meaning = (['kind', 'axis', 'axisUnit', 'valueUnit', 'compounding'] as const).filter(k => input[k] !== undefined && input[k] !== table[k])
   if (!unitFitsKind(input.kind ?? table.kind, input.valueUnit ?? table.valueUnit)) throw apiError(400, 'invalid-input', UNIT_KIND_MESSAGE, { issues: [{ path: 'valueUnit', message: UNIT_KIND_MESSAGE }] })
   if (meaning.length) {
     // what the numbers mean is part of what a reviewer checked and signed: it is fixed once a version left draft
     const [row] = await useDb().query<{ n: number }>(`SELECT count(*)::int AS n FROM table_versions WHERE table_id = :tableId AND status <> 'draft'`, { replacements: { tableId: table.id }, type: QueryTypes.SELECT })
     if (row!.n > 0) {
-      throw apiError(409, 'meaning-fixed', 'The kind, axis and units cannot change once a version has been submitted for review or signed off. Name, description and tags can; for another kind or unit, create a new table.')
+      throw apiError(409, 'meaning-fixed', 'The kind, axis, units and compounding cannot change once a version has been submitted for review or signed off. Name, description and tags can; for another kind or unit, create a new table.')
     }
   }
   if (input.name && input.name !== table.name && await RateTable.findOne({ where: { orgId: access.org.id, name: input.name } })) {
     throw apiError(409, 'name-taken', `A table called "${input.name}" already exists.`)
   }
   await inTransaction(async (t) => {
-    const before = { name: table.name, kind: table.kind, valueUnit: table.valueUnit, axis: table.axis, axisUnit: table.axisUnit, tags: table.tags }
+    const before = { name: table.name, kind: table.kind, valueUnit: table.valueUnit, axis: table.axis, axisUnit: table.axisUnit, compounding: table.compounding, tags: table.tags }
     await table.update(input, { transaction: t })
     await audit(event, { orgId: access.org.id, action: 'table.update', objectType: 'rate_table', objectId: table.id, detail: { before, changes: input } }, t)
   })

@@ -29,10 +29,18 @@ export const moneyChoiceSchema = z.object({
   keyTerms: z.array(plainDecimal).min(1).max(20).optional(),
 })
 
+/** Options of an old-age closure (gompertz, kannisto); blank or missing means the engine's default. */
+export const closureOptionsSchema = z.object({
+  terminalAge: plainDecimal.optional(),
+  fitFrom: plainDecimal.optional(),
+  fitTo: plainDecimal.optional(),
+}).strict()
+
 const settings = {
   grid: benchGridSchema,
   transform: z.enum(TRANSFORM_IDS).default('none'),
   extrapolation: z.enum(EXTRAPOLATION_RULES).default('error'),
+  extrapolationOptions: closureOptionsSchema.optional(),
   precision: z.number().int().min(6).max(60).optional(),
   money: moneyChoiceSchema.optional(),
 }

@@ -1,6 +1,14 @@
 import { z } from '#shared/zod'
 import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFitsKind } from '../tables'
 import { IMPORT_COLUMNS_CAP, IMPORT_VALUE_COLUMNS_CAP } from '../import-caps'
+import { BAND_VALUE_KINDS } from '../bands'
+import { COMPOUNDING_IDS, SPLIT_METHOD_IDS } from '../engine/contract'
+
+/** The person's answer when the axis holds bands ("55-59"): totals to split into single years (and how), or band rates. */
+export const bandAnswerSchema = z.object({
+  values: z.enum(BAND_VALUE_KINDS),
+  split: z.enum(SPLIT_METHOD_IDS).default('sprague'),
+})
 
 // The mapping a person builds in the wizard; the preview and the final create both
 // re-validate the stored cells against it on the server.
@@ -9,6 +17,8 @@ export const importColumnSchema = z.object({
   name: z.string().trim().min(1, { message: 'Give each new table a name' }).max(160),
   kind: z.enum(TABLE_KINDS),
   valueUnit: z.enum(VALUE_UNITS),
+  /** How a curve's spot rates compound (curve kinds; annual when not said). */
+  compounding: z.enum(COMPOUNDING_IDS).optional(),
 }).refine(c => unitFitsKind(c.kind, c.valueUnit), { path: ['valueUnit'], message: UNIT_KIND_MESSAGE })
 
 export const importMappingSchema = z.object({
@@ -22,6 +32,7 @@ export const importMappingSchema = z.object({
   /** fixes typed in the preview, keyed "row:col" (0-based sheet coordinates) */
   edits: z.record(z.string().regex(/^\d+:\d+$/), z.string().max(60)).default({}),
   description: z.string().max(4000).default(''),
+  bands: bandAnswerSchema.optional(),
 }).superRefine((m, ctx) => {
   const names = new Set<string>()
   m.columns.forEach((c, i) => {

@@ -1,6 +1,7 @@
 import { z } from '#shared/zod'
 import { AXES, AXIS_UNITS, TABLE_KINDS, UNIT_KIND_MESSAGE, VALUE_UNITS, unitFitsKind } from '../tables'
 import { MAX_SIGNIFICANT_DIGITS, canonicalDecimal, parseNumberText } from '../decimal-text'
+import { COMPOUNDING_IDS } from '../engine/contract'
 
 // Shared by the points grid (vee-validate through utils/zod-form.ts) and the handlers.
 export const decimalText = z.string().trim()
@@ -38,6 +39,7 @@ export const tableUpdateSchema = z.object({
   axis: z.enum(AXES).optional(),
   axisUnit: z.enum(AXIS_UNITS).optional(),
   valueUnit: z.enum(VALUE_UNITS).optional(),
+  compounding: z.enum(COMPOUNDING_IDS).optional(),
   description: z.string().max(4000).optional(),
   tags: z.array(z.string().trim().min(1).max(40)).max(20).optional(),
 })
@@ -54,6 +56,7 @@ export const tableDetailsFormSchema = z.object({
   axis: z.enum(AXES),
   axisUnit: z.enum(AXIS_UNITS),
   valueUnit: z.enum(VALUE_UNITS),
+  compounding: z.enum(COMPOUNDING_IDS),
   description: z.string().max(4000, { message: 'Use at most 4,000 characters' }),
   tags: z.string()
     .transform(text => [...new Set(text.split(',').map(t => t.trim()).filter(Boolean))])

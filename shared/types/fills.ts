@@ -1,5 +1,5 @@
 // What the fill bench routes answer. The engine's result types are re-exported (types only, no engine code).
-import type { CompareResult, Diagnostics, MethodListing, MoneyImpact, ResolvedSpec, TransformListing } from '../engine/contract'
+import type { CompareResult, Compounding, Diagnostics, MethodListing, MoneyImpact, ResolvedSpec, TransformListing } from '../engine/contract'
 import type { TableKind, Axis, VersionStatus } from '../tables'
 import type { BenchGrid } from '../schemas/fills'
 
@@ -19,6 +19,8 @@ export interface CompareResponseDto {
   engineMs: number
   knots: { x: string, y: string }[]
   kind: TableKind
+  /** How the curve's spot rates compound (the forward chart uses it). */
+  compounding?: Compounding
   axis: Axis
   status: VersionStatus
   lockVersion: number

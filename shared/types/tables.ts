@@ -1,3 +1,5 @@
+import type { GraduationRecord } from './graduation'
+import type { Compounding } from '../engine/contract'
 import type { Axis, AxisUnit, ColAxis, Shape, TableKind, ValueUnit, VersionStatus } from '../tables'
 
 export interface PointDto { x: string; y: string } // stored per-unit decimals as strings
@@ -15,6 +17,8 @@ export interface VersionSummaryDto {
   pointCount: number
   createdAt: string
   updatedAt: string
+  /** Made by the graduate step: from which version, how (the engine's spec) and why. */
+  graduation: GraduationRecord | null
 }
 
 /** `cells` are a two-way version's given cells (empty for a one-way table, whose `points` are empty for a two-way one). */
@@ -27,6 +31,8 @@ export interface TableDto {
   axis: Axis
   axisUnit: AxisUnit
   valueUnit: ValueUnit
+  /** How the spot rates compound (curve kinds; annual for every other kind). */
+  compounding: Compounding
   shape: Shape
   /** The column axis of a two-way table (null for one-way). */
   colAxis: ColAxis | null
@@ -73,7 +79,23 @@ export interface ImportSheetDto {
   headerGuess: number
 }
 
+/** An axis of bands ("55-59") found on import: what was found, the person's answer, and each band's total kept after a split. */
+export interface BandSummary {
+  count: number
+  first: string
+  last: string
+  /** Widths of the bands in whole years (one width expected). */
+  widths: number[]
+  answer: { values: 'totals' | 'rates', split: 'sprague' | 'beers' | 'karup-king' } | null
+  /** Significant digits of each band's total that a split keeps. */
+  digits: number
+  /** Per band and column: the total, the sum of its single-year values (added up again exactly), and whether they agree. */
+  checks: { column: string, band: string, total: string, sum: string, kept: boolean }[]
+}
+
 export interface ImportPreviewDto {
+  /** The axis holds bands (null otherwise). */
+  bands: BandSummary | null
   findings: ImportFinding[]
   errors: number
   warnings: number

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 import type { Axis, AxisUnit, ColAxis, Shape, TableKind, ValueUnit } from '#shared/tables'
+import type { Compounding } from '#shared/engine/contract'
 
 export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAttributes<RateTable>> {
   declare id: CreationOptional<string>
@@ -13,6 +14,8 @@ export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAt
   declare colAxis: CreationOptional<ColAxis | null>
   declare colAxisUnit: CreationOptional<AxisUnit | null>
   declare hasUltimate: CreationOptional<boolean>
+  /** How a curve's spot rates compound (migration 1102); annual for every other kind. */
+  declare compounding: CreationOptional<Compounding>
   declare description: CreationOptional<string>
   declare tags: CreationOptional<string[]>
   declare createdBy: string | null
@@ -32,6 +35,7 @@ export class RateTable extends Model<InferAttributes<RateTable>, InferCreationAt
       colAxis: { type: DataTypes.TEXT, allowNull: true },
       colAxisUnit: { type: DataTypes.TEXT, allowNull: true },
       hasUltimate: { type: DataTypes.BOOLEAN, defaultValue: false },
+      compounding: { type: DataTypes.TEXT, defaultValue: 'annual' },
       description: { type: DataTypes.TEXT, defaultValue: '' },
       tags: { type: DataTypes.ARRAY(DataTypes.TEXT), defaultValue: [] },
       createdBy: { type: DataTypes.UUID, allowNull: true },

@@ -119,9 +119,9 @@ export const smithWilson: MethodDefinition = {
   summary: 'For spot rates and discount factors. Passes through every given point up to the last liquid point and carries the curve beyond it to the ultimate forward rate; alpha sets how fast. Not local: one point moves the whole curve. Beyond the last knot it needs extrapolation \'method\'.',
   options: [
     { name: 'ufr', label: 'Ultimate forward rate', type: 'decimal', default: '0.035', description: 'Ultimate forward rate, an annual rate (0.035 = 3.5 %). Use the value your regulator publishes for the currency and date.' },
-    { name: 'alpha', label: 'Convergence speed (alpha)', type: 'decimal', keywords: ['auto'], default: 'auto', description: 'Convergence speed. auto: the smallest alpha of at least 0.05 (to 6 decimals) for which the forward intensity at the convergence point is within 1 basis point of ln(1 + UFR).' },
-    { name: 'llp', label: 'Last liquid point', type: 'decimal', keywords: ['last-knot'], default: 'last-knot', description: 'Last liquid point: given terms beyond it are not used. Default: the last given term.' },
-    { name: 'convergencePoint', label: 'Convergence point', type: 'decimal', keywords: ['auto'], default: 'auto', description: 'Term at which the forward must be within 1 bp of the UFR. auto: max(LLP + 40, 60).' },
+    { name: 'alpha', label: 'Convergence speed (alpha)', type: 'decimal', keywords: ['auto'], valueLabels: { auto: 'Calibrated (the smallest that converges)' }, default: 'auto', description: 'Convergence speed. auto: the smallest alpha of at least 0.05 (to 6 decimals) for which the forward intensity at the convergence point is within 1 basis point of ln(1 + UFR).' },
+    { name: 'llp', label: 'Last liquid point', type: 'decimal', keywords: ['last-knot'], valueLabels: { 'last-knot': 'The last given term' }, default: 'last-knot', description: 'Last liquid point: given terms beyond it are not used. Default: the last given term.' },
+    { name: 'convergencePoint', label: 'Convergence point', type: 'decimal', keywords: ['auto'], valueLabels: { auto: 'Last liquid point + 40, at least 60' }, default: 'auto', description: 'Term at which the forward must be within 1 bp of the UFR. auto: max(LLP + 40, 60).' },
   ],
   scale: 'log-discount',
   appliesTo: { kinds: [...CURVE_KINDS], spacing: 'any' },

@@ -4,10 +4,13 @@ import type { ColumnSuggestion } from '#shared/types/tables'
 import type { StoredSheet } from './read-workbook'
 
 import { columnLetter } from '#shared/cells'
+import { parseBand } from '#shared/bands'
 
 export { cellAddress, columnLetter } from '#shared/cells'
 
 const isNumber = (v: string | null | undefined) => !!v && parseNumberText(v).ok
+/** A number, or a band of whole years ("55-59", "[55, 60)"): what an axis cell may hold. */
+const isAxisValue = (v: string | null | undefined) => isNumber(v) || parseBand(v) !== null
 const filled = (row: (string | null)[] | undefined) => (row ?? []).filter(v => v !== null && v !== '')
 
 /**
@@ -18,10 +21,10 @@ export function proposeHeaderRow(rows: (string | null)[][]): number {
   const limit = Math.min(rows.length, 40)
   for (let r = 0; r < limit; r++) {
     const cells = filled(rows[r])
-    if (cells.length < 2 || cells.filter(v => !isNumber(v)).length * 2 < cells.length) continue
+    if (cells.length < 2 || cells.filter(v => !isAxisValue(v)).length * 2 < cells.length) continue
     let next = r + 1
     while (next < rows.length && filled(rows[next]).length === 0) next++
-    if (filled(rows[next]).filter(isNumber).length >= 2) return r
+    if (filled(rows[next]).filter(isAxisValue).length >= 2) return r
   }
   return 0
 }
@@ -68,6 +71,8 @@ export function suggestColumns(sheet: StoredSheet, headerRow: number): ColumnSug
     const title = (header[c] ?? '').trim() || `Column ${columnLetter(c)}`
     const values = body.map(r => r[c]).filter((v): v is string => !!v && v.trim() !== '')
     const numeric = values.filter(isNumber).length
+    const bands = axisTaken ? 0 : values.filter(v => parseBand(v) !== null).length
+    if (values.length && bands * 2 >= values.length) { axisTaken = true; out.push({ index: c, header: title, role: 'axis', kind: 'other', valueUnit: 'per-unit', unitReason: null }); continue }
     if (!values.length || numeric * 2 < values.length) { out.push({ index: c, header: title, role: 'ignore', kind: 'other', valueUnit: 'per-unit', unitReason: null }); continue }
     const isAxis = !axisTaken && (/age|year|term|tenor|duration|maturity|^x$/i.test(title) || c === 0)
     if (isAxis) { axisTaken = true; out.push({ index: c, header: title, role: 'axis', kind: 'other', valueUnit: 'per-unit', unitReason: null }); continue }

@@ -5,9 +5,12 @@ import type { ImportMapping } from '#shared/schemas/imports'
 import type { ImportFinding, PointDto } from '#shared/types/tables'
 import { cellAddress } from './analyse'
 import type { StoredSheet } from './read-workbook'
+import { parseBand, type Band } from '#shared/bands'
+import type { BandSummary } from '#shared/types/tables'
+import { resolveBands, type BandValue } from './bands'
 
 export interface ValidatedTable { name: string; column: number; kind: ImportMapping['columns'][number]['kind']; valueUnit: ImportMapping['columns'][number]['valueUnit']; points: PointDto[] }
-export interface Validation { findings: ImportFinding[]; tables: ValidatedTable[]; flaggedRows: number[] }
+export interface Validation { findings: ImportFinding[]; tables: ValidatedTable[]; flaggedRows: number[]; bands: BandSummary | null }
 
 const MAX_FINDINGS = 1000
 
@@ -43,6 +46,9 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
   let previous: string | null = null
   let unsortedReported = false
   let dataRows = 0
+  // an axis of bands ("55-59"): the values of each column by band, resolved in finish (resolveBands)
+  let bandRows = 0
+  const banded: BandValue[][] = m.columns.map(() => [])
 
   const checkRow = (r: number) => {
     const axisCell = cellAt(r, m.axisColumn)
@@ -50,7 +56,14 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
     if (axisCell.text === null && valueCells.every(v => v.text === null)) return // blank row
     dataRows++
     let x: string | null = null
-    if (axisCell.formula) add('error', 'formula', r, m.axisColumn, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.')
+    const band: Band | null = axisCell.formula ? null : parseBand(axisCell.text)
+    if (band) {
+      bandRows++
+      const first = firstRowOf.get(band.from)
+      if (first !== undefined) add('error', 'duplicate-axis', r, m.axisColumn, `the band ${axisCell.text} appears again (first in row ${first + 1})`)
+      else { firstRowOf.set(band.from, r); x = band.from }
+    }
+    else if (axisCell.formula) add('error', 'formula', r, m.axisColumn, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.')
     else if (axisCell.text === null) add('error', 'axis-blank', r, m.axisColumn, `the ${axisName} is blank but the row has values`)
     else {
       const p = parseNumberText(axisCell.text)
@@ -78,19 +91,31 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
       const p = parseNumberText(cell.text)
       if (!p.ok) return add('error', 'not-a-number', r, col.index, `'${cell.text}' ${p.reason}`)
       const y = toPerUnit(p, col.valueUnit)
-      const rule = checkValue(col.kind, y)
+      // totals of a band (deaths, exposures) have no range rule of their own; rates do
+      const rule = band && m.bands?.values === 'totals' ? null : checkValue(col.kind, y)
       if (rule) add(rule.severity, 'out-of-range', r, col.index, `'${cell.text}' (${y} per unit): ${rule.message}`)
-      if (x !== null && (!rule || rule.severity === 'warning')) tables[i]!.points.push({ x, y })
+      if (x === null || (rule && rule.severity !== 'warning')) return
+      if (band) banded[i]!.push({ band, value: y, row: r })
+      else tables[i]!.points.push({ x, y })
     })
   }
   const finish = (): Validation => {
     if (dataRows === 0) add('error', 'no-rows', null, null, 'there are no rows under the header row')
+    let bands: BandSummary | null = null
+    if (bandRows > 0) {
+      if (tables.some(t => t.points.length)) add('error', 'bands-mixed', null, m.axisColumn, `the ${axisName} column mixes bands (like 55-59) with single values; use one or the other`)
+      const resolved = resolveBands(m, banded, add)
+      tables.forEach((t, i) => { t.points = sortPoints(resolved.points[i]!) })
+      bands = resolved.summary
+    }
     for (const t of tables) {
-      if (dataRows > 0 && t.points.length === 0) add('error', 'no-points', null, t.column, `"${t.name}" has no usable values`)
+      // a band column already says why it has no points (the question, or the split's refusal)
+      const explained = bands !== null && (bands.answer === null || findings.some(f => f.col === t.column && f.severity === 'error'))
+      if (dataRows > 0 && t.points.length === 0 && !explained) add('error', 'no-points', null, t.column, `"${t.name}" has no usable values`)
       else if (t.points.length === 1) add('warning', 'one-point', null, t.column, `"${t.name}" has a single point; interpolation needs at least two`)
       if (unsortedReported) t.points = sortPoints(t.points)
     }
-    return { findings, tables, flaggedRows: [...flagged].sort((a, b) => a - b) }
+    return { findings, tables, flaggedRows: [...flagged].sort((a, b) => a - b), bands }
   }
   return { firstRow: m.headerRow + 1, endRow: sheet.rows.length, checkRow, finish }
 }

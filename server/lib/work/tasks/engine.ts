@@ -1,7 +1,7 @@
 import { performance } from 'node:perf_hooks'
-import { compareAsync, fill } from '~~/server/engine/index'
+import { compareAsync, fill, graduate } from '~~/server/engine/index'
 import type { CompareOptions } from '~~/server/engine/compare'
-import type { Diagnostics, FillRequest, MethodSpec, MoneyImpact, ResolvedSpec } from '~~/server/engine/types'
+import type { Diagnostics, FillRequest, GraduateRequest, GraduateResult, MethodSpec, MoneyImpact, ResolvedSpec } from '~~/server/engine/types'
 import { chunkPoints, type PointChunk } from '../point-chunks'
 import type { TaskContext } from './context'
 
@@ -24,4 +24,9 @@ export interface FillTaskOutput { spec: ResolvedSpec, diagnostics: Diagnostics, 
 export function fillTask(request: FillRequest): FillTaskOutput {
   const result = fill(request)
   return { spec: result.spec, diagnostics: result.diagnostics, money: result.money, pointCount: result.points.length, chunks: chunkPoints(result.points) }
+}
+
+/** Whittaker-Henderson graduation with its fit tests (a banded solve in decimal: tens of ms for 100 ages, more for more). */
+export function graduateTask(request: GraduateRequest): GraduateResult {
+  return graduate(request)
 }

@@ -53,6 +53,7 @@ export function previewTask(input: { sheetsJson: string, mapping: ImportMapping 
   for (let r = m.headerRow + 1; r < sheet.rows.length && r <= m.headerRow + 30; r++) shown.add(r)
   const columns = [m.axisColumn, ...m.columns.map(c => c.index)]
   return {
+    bands: v.bands,
     findings: v.findings,
     tables: v.tables.map(t => ({ name: t.name, kind: t.kind, valueUnit: t.valueUnit, pointCount: t.points.length, sample: t.points.slice(0, 5) })),
     rows: [...shown].sort((a, b) => a - b).map(r => ({ row: r, cells: columns.map(c => sheet.rows[r]?.[c] ?? null) })),

@@ -1,5 +1,5 @@
 import type { TaskContext } from './context'
-import { compareTask, fillTask } from './engine'
+import { compareTask, fillTask, graduateTask } from './engine'
 import { describeTask, previewTask, readUploadTask, validateTask } from './imports'
 import { previewMatrixTask, validateMatrixTask } from './import-matrix'
 import { gridCompareTask, gridFillTask } from './grid'
@@ -15,6 +15,7 @@ export const TASKS = {
   fill: fillTask,
   gridCompare: gridCompareTask,
   gridFill: gridFillTask,
+  graduate: graduateTask,
   readUpload: readUploadTask,
   describeImport: describeTask,
   previewImport: previewTask,

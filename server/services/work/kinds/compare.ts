@@ -19,10 +19,10 @@ export async function compareJson(orgId: string, tableId: string, number: number
   const table = await findTable(orgId, tableId)
   const version = await findVersion(orgId, tableId, number)
   const knots = await readPoints(version.id)
-  const requests = compare.methods.map(m => buildFillRequest({ knots, kind: table.kind }, compare, m))
+  const requests = compare.methods.map(m => buildFillRequest({ knots, kind: table.kind, compounding: table.compounding }, compare, m))
   const methods = compare.methods.map((m, i) => ({ method: m.method, options: m.options ?? {}, transform: requests[i]!.transform, ...(m.label ? { label: m.label } : {}) }))
   const out = await runTask('compare', { request: requests[0]!, methods, options: compare.baseline ? { baseline: compare.baseline } : {} }, { signal, onProgress: progress })
   // the comparison stays the worker's JSON text; only the small fields around it are written here
-  const rest = JSON.stringify({ engineMs: out.engineMs, knots, kind: table.kind, axis: table.axis, status: version.status, lockVersion: version.lockVersion, pointCount: knots.length })
+  const rest = JSON.stringify({ engineMs: out.engineMs, knots, kind: table.kind, compounding: table.compounding, axis: table.axis, status: version.status, lockVersion: version.lockVersion, pointCount: knots.length })
   return `{"result":${out.json},${rest.slice(1)}`
 }
