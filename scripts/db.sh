@@ -99,13 +99,17 @@ if ! running; then
     log "removing stale pid file (cluster not running)"
     rm -f "$pgdata/postmaster.pid"
   fi
+  # The socket's lock file names the old postmaster too; PostgreSQL refuses to start while that pid exists, and a
+  # postmaster killed with SIGKILL stays a zombie where nothing reaps orphans (a container whose pid 1 is not init).
+  rm -f "$pgdata"/.s.PGSQL.*.lock "$pgdata"/.s.PGSQL.[0-9]*
   if [ -z "${KW_PG_PORT:-}" ] || ! port_free "$KW_PG_PORT"; then
     KW_PG_PORT="$(pick_port)"
     sed -i "s/^KW_PG_PORT=.*/KW_PG_PORT=$KW_PG_PORT/" "$envfile"
   fi
   log "starting PostgreSQL on 127.0.0.1:$KW_PG_PORT"
   as_pg "$bin/pg_ctl" -D "$pgdata" -l "$pgdata/server.log" -w -t 180 start \
-    -o "-c listen_addresses=127.0.0.1 -p $KW_PG_PORT -c unix_socket_directories='$pgdata' -c max_connections=200 $DURABLE" >/dev/null
+    -o "-c listen_addresses=127.0.0.1 -p $KW_PG_PORT -c unix_socket_directories='$pgdata' -c max_connections=200 $DURABLE" >/dev/null \
+    || { log "PostgreSQL did not start; the end of $pgdata/server.log:"; tail -n 15 "$pgdata/server.log" >&2; exit 1; }
 else
   log "PostgreSQL already running on 127.0.0.1:$KW_PG_PORT"
 fi

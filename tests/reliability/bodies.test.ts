@@ -72,13 +72,17 @@ describe('request bodies', () => {
     expect(under.status).toBe(400) // read, then refused by validation: the address is not an e-mail address
   })
 
-  it('JSON routes refuse other content types with 415', async () => {
+  it('JSON routes refuse other content types: the types a form can send with 403 (origin check, issue 14), others with 415', async () => {
     const client = anonymous()
-    for (const type of ['text/plain', 'application/x-www-form-urlencoded', 'multipart/form-data; boundary=x', 'application/jsonp']) {
+    // a cross-site form can send these three without asking: refused by the same-origin middleware before any body rule
+    for (const type of ['text/plain', 'application/x-www-form-urlencoded', 'multipart/form-data; boundary=x']) {
       const r = await client.req('POST', '/api/auth/login', 'email=a@b.example&password=x', { 'content-type': type })
-      expect(r.status, type).toBe(415)
-      expect((r.body as { data: { code: string } }).data.code).toBe('unsupported-media-type')
+      expect(r.status, type).toBe(403)
+      expect((r.body as { data: { code: string } }).data.code, type).toBe('json-required')
     }
+    const other = await client.req('POST', '/api/auth/login', 'email=a@b.example&password=x', { 'content-type': 'application/jsonp' })
+    expect(other.status).toBe(415)
+    expect((other.body as { data: { code: string } }).data.code).toBe('unsupported-media-type')
     const json = await client.req('POST', '/api/auth/login', '{"email":"nobody@example.test","password":"x"}', { 'content-type': 'application/json; charset=utf-8' })
     expect(json.status).toBe(401)
   })
