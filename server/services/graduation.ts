@@ -24,6 +24,7 @@ function engineFailure(error: unknown): never {
 
 async function graduationOf(access: OrgAccess, tableId: string, number: number, input: GraduationSettings, signal?: AbortSignal) {
   const table = await findTable(access.org.id, tableId)
+  if (table.shape === 'two-way') throw apiError(409, 'wrong-shape', 'Graduation works on one-way tables; a two-way table is filled on the two-way bench (a method per axis).')
   if (!GRADUATED_KINDS.includes(table.kind)) {
     throw apiError(400, 'not-graduated-kind', 'Graduation smooths rates estimated from experience (mortality, lapse, salary); a curve is not graduated.')
   }

@@ -65,6 +65,13 @@ describe('a two-way table', () => {
     const points = await analyst.req<{ data: { code: string } }>('PUT', `${url}/points`, { lockVersion: saved.body.lockVersion, points: [{ x: '30', y: '0.001' }] })
     expect(points.status).toBe(409)
     expect(points.body.data.code).toBe('wrong-shape')
+    // nor can it be graduated (the graduate step smooths one axis of crude rates)
+    const actuary = await signedIn(DEMO.actuary)
+    for (const step of ['graduate', 'graduated-draft']) {
+      const graduated = await actuary.post<{ data: { code: string } }>(`${url}/${step}`, { order: 2, smoothing: '10', digits: 6, lockVersion: saved.body.lockVersion, rationale: 'Smoothing the select rates.' })
+      expect(graduated.status, step).toBe(409)
+      expect(graduated.body.data.code).toBe('wrong-shape')
+    }
     expect(await count(`SELECT 1 FROM audit_events WHERE action = 'version.points.save' AND object_id = :id AND (detail->>'cells')::int = 10`, { id: v.id })).toBe(1)
   })
 
