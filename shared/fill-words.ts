@@ -1,7 +1,8 @@
 // A fill's settings in words a reviewer reads, the same on the bench, the table page, the version diff, the audit trail
 // and the signed workbook: method names, option names and option values come from the engine's listing (label,
 // valueLabels), never as ids. Listings are passed in (the server has them from the engine, the client from the API).
-import type { ExtrapolationRule, MethodListing, OptionDescriptor, TransformListing } from './engine/contract'
+import type { Compounding, ExtrapolationRule, MethodListing, OptionDescriptor, TransformListing } from './engine/contract'
+import { COMPOUNDING_WORDS } from './tables'
 import { EXTRAPOLATION_LABELS } from './fills'
 import { fromPerUnit } from './decimal-text'
 import { groupThousands } from './plain-text'
@@ -13,6 +14,8 @@ export interface SpecLike {
   options?: Record<string, string>
   transform?: string
   extrapolation?: string
+  extrapolationOptions?: Record<string, string> | null
+  compounding?: string
   grid?: { from: string, to: string, step: string } | null
   at?: string[] | null
   precision?: number
@@ -56,10 +59,7 @@ export function gridWords(spec: SpecLike, pointCount?: number): string {
   return '—'
 }
 
-/**
- * The old-age closure's settings in words: "Terminal age: 120", "Law fitted to the given ages: 95 to 110". Kept out of
- * specRows, whose wording is part of signed format 2 (the closure's options are in the signed spec itself).
- */
+/** The old-age closure's settings in words: "Terminal age: 120", "Law fitted to the given ages: 95 to 110". */
 export function closureRows(spec: { extrapolation?: string, extrapolationOptions?: Record<string, string> | null }): WordRow[] {
   const o = spec.extrapolationOptions
   if (!o || !spec.extrapolation || !['gompertz', 'kannisto'].includes(spec.extrapolation)) return []
@@ -69,12 +69,18 @@ export function closureRows(spec: { extrapolation?: string, extrapolationOptions
   ]
 }
 
-/** A stored fill spec as rows of words, in the order a reviewer reads them. */
+/**
+ * A stored fill spec as rows of words, in the order a reviewer reads them. Part of signed format 2's sheets: a row is
+ * only ever added for a setting that older specs do not carry (compounding and the old-age closures came with engine
+ * 1.5.0, before any export carried them), so every older export still reads the same.
+ */
 export function specRows(spec: SpecLike, methods: readonly MethodListing[], transforms: readonly TransformListing[], pointCount?: number): WordRow[] {
   const listing = methods.find(m => m.id === spec.method)
   const rows: WordRow[] = [{ label: 'Method', value: listing?.label ?? spec.method }, ...optionRows(listing, spec.options)]
   rows.push({ label: 'Interpolated on', value: transformWords(transforms, spec.transform) })
   if (spec.extrapolation) rows.push({ label: 'Outside the given points', value: EXTRAPOLATION_LABELS[spec.extrapolation as ExtrapolationRule] ?? spec.extrapolation })
+  rows.push(...closureRows(spec))
+  if (spec.compounding) rows.push({ label: 'Rates read as', value: COMPOUNDING_WORDS[spec.compounding as Compounding] ?? spec.compounding })
   rows.push({ label: 'Grid', value: gridWords(spec, pointCount) })
   if (spec.precision) rows.push({ label: 'Precision', value: `${spec.precision} significant digits, rounded half to even` })
   if (spec.money?.ages?.length) rows.push({ label: 'Money view', value: `ages ${spec.money.ages.join(', ')}${spec.money.interest ? ` at ${fromPerUnit(spec.money.interest, 'percent')}% interest` : ''}` })

@@ -10,7 +10,7 @@ import type { FillMethodsDto, SavedFillDto, StoredFillSpec } from '#shared/types
 import { FITTED_ON, findTable, findVersion } from './tables'
 import { insertPointChunks, readPoints } from './points-store'
 import { buildFillRequest } from './fill-request'
-import { closureRows, specRows } from '#shared/fill-words'
+import { specRows } from '#shared/fill-words'
 import { HEAVY_WORK, newRunKey, startRun } from './work/start'
 import type { CompareRunInput } from './work/kinds/compare'
 
@@ -108,7 +108,7 @@ export async function getFill(orgId: string, tableId: string, number: number, wi
     pointCount: row.point_count as number,
     stale: row.fitted_on !== row.content_hash,
     fittedOn: { contentHash: (row.fitted_on as string | null) ?? null, lockVersion: (row.fill_lock_version as number | null) ?? null },
-    settings: [...specRows(spec, METHODS, TRANSFORM_LISTING, row.point_count as number), ...closureRows(spec)],
+    settings: specRows(spec, METHODS, TRANSFORM_LISTING, row.point_count as number),
     lockVersion: row.lock_version as number,
   }
   if (withPoints) {

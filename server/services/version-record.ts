@@ -1,4 +1,5 @@
 import { QueryTypes, type Transaction } from 'sequelize'
+import { CURVE_KINDS } from '#shared/engine/contract'
 import type { Json, Pair, Person, ReadableRecord, ReadableRecordV3, Triple } from '../lib/signing'
 import { FITTED_ON, findVersion } from './tables'
 import { readPoints, type PointTable } from './points-store'
@@ -31,7 +32,7 @@ const PEOPLE = ['au:author_id', 'fb:filled_by', 'sb:submitted_by', 'ab:approved_
 export async function versionRecord(org: OrgRef, tableId: string, number: number, t?: Transaction): Promise<ReadableRecord | ReadableRecordV3> {
   const { id } = await findVersion(org.id, tableId, number, { transaction: t })
   const [r] = await useDb().query<Row>(`
-    SELECT v.*, ${FITTED_ON} AS fitted_on, t.name AS table_name, t.kind, t.axis, t.axis_unit, t.value_unit, t.shape, t.col_axis, t.col_axis_unit, t.has_ultimate, ${PEOPLE.map(p => p.cols).join(', ')}
+    SELECT v.*, ${FITTED_ON} AS fitted_on, t.name AS table_name, t.kind, t.axis, t.axis_unit, t.value_unit, t.compounding, t.shape, t.col_axis, t.col_axis_unit, t.has_ultimate, ${PEOPLE.map(p => p.cols).join(', ')}
     FROM table_versions v JOIN rate_tables t ON t.id = v.table_id ${PEOPLE.map(p => p.join).join(' ')}
     WHERE v.id = :id`,
   { replacements: { id }, type: QueryTypes.SELECT, transaction: t })
@@ -45,7 +46,7 @@ export async function versionRecord(org: OrgRef, tableId: string, number: number
     : null
   const common = {
     organisation: { slug: org.slug, name: org.name },
-    table: { id: tableId, name: r.table_name as string, kind: r.kind as string, axis: r.axis as string, axisUnit: r.axis_unit as string, valueUnit: r.value_unit as string },
+    table: { id: tableId, name: r.table_name as string, kind: r.kind as string, axis: r.axis as string, axisUnit: r.axis_unit as string, valueUnit: r.value_unit as string, ...((CURVE_KINDS as readonly string[]).includes(r.kind as string) ? { compounding: r.compounding as string } : {}) },
     version: { id, number, status: r.status as string, contentHash: r.content_hash as string, notes: r.notes as string },
     madeBy: person(r, 'au'),
     submittedBy: person(r, 'sb'),

@@ -61,7 +61,7 @@ describe('the read API', () => {
     const r = await read(`/api/v1/tables/${curve.id}`)
     expect(r.status).toBe(200)
     const body = await r.json() as { content: { format: string, table: { name: string }, version: { status: string }, points: [string, string][] }, signature: string, keyId: string, auditHead: { statement: { format: string, head: { number: number, hash: string } }, signature: string } }
-    expect(body.content).toMatchObject({ format: 'knotwork-signed-table/2', table: { name: 'Discount curve 2026-09-30' }, version: { status: 'approved' } })
+    expect(body.content).toMatchObject({ format: 'knotwork-signed-table/2', table: { name: 'Discount curve 2026-09-30', compounding: 'annual' }, version: { status: 'approved' } })
     expect(body.content.points.length).toBeGreaterThan(5)
     const jwks = await (await fetch(`${BASE}/api/keys/${LARKSPUR}.json`)).json() as { keys: { kid: string }[] }
     const jwk = jwks.keys.find(k => k.kid === body.keyId)!

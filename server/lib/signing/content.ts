@@ -42,7 +42,8 @@ export interface SignedFill extends SignedFillV1 {
 
 interface ContentCommon {
   organisation: { slug: string; name: string }
-  table: { id: string; name: string; kind: string; axis: string; axisUnit: string; valueUnit: string }
+  /** compounding: how a curve's rates compound (curve kinds only; signed since issue 16, absent from older exports) */
+  table: { id: string; name: string; kind: string; axis: string; axisUnit: string; valueUnit: string; compounding?: string }
   version: { id: string; number: number; status: string; contentHash: string; notes: string }
   /** the given points, per unit */
   points: Pair[]

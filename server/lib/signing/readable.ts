@@ -4,7 +4,8 @@ import { specRows, type SpecLike, type WordRow } from '#shared/fill-words'
 import { checkRows, verdictOf } from '#shared/check-words'
 import { fromPerUnit } from '#shared/decimal-text'
 import { formatUtc, groupThousands } from '#shared/plain-text'
-import { KIND_LABELS, STATUS_LABELS, VALUE_NAMES, VALUE_UNIT_WORDS, axisHeading, valueHeading, type Axis, type AxisUnit, type TableKind, type ValueUnit, type VersionStatus } from '#shared/tables'
+import type { Compounding } from '#shared/engine/contract'
+import { COMPOUNDING_WORDS, KIND_LABELS, STATUS_LABELS, VALUE_NAMES, VALUE_UNIT_WORDS, axisHeading, valueHeading, type Axis, type AxisUnit, type TableKind, type ValueUnit, type VersionStatus } from '#shared/tables'
 import type { Pair, Person, SignedContentV2 } from './content'
 import { escapeText } from './escape'
 import type { CellValue, SheetModel } from './workbook-model'
@@ -78,6 +79,7 @@ export function aboutRows(r: ReadableRecord, banner: string[], extra: WordRow[])
       { label: 'Kind of table', value: KIND_LABELS[u.kind] ?? r.table.kind },
       { label: 'Axis', value: axisHeading(u.axis, u.axisUnit) },
       { label: 'Values in', value: VALUE_UNIT_WORDS[u.unit] ?? r.table.valueUnit },
+      ...(r.table.compounding ? [{ label: 'Rates read as', value: COMPOUNDING_WORDS[r.table.compounding as Compounding] ?? r.table.compounding }] : []),
     ]),
     ...section('The version', [
       { label: 'Version', value: String(r.version.number) },

@@ -98,6 +98,28 @@ describe('signed export (format 2): fixed cases', () => {
     expect(about.find(r => r.startsWith('Fitted on'))).toMatch(/the given points of this version/)
   })
 
+  it('a curve says how its rates compound, in the table and in the fill; changing those words is altered; a file without them reads as before', async () => {
+    const curve = {
+      ...content,
+      table: { ...content.table, kind: 'spot-rate', axis: 'term', valueUnit: 'percent', compounding: 'continuous' },
+      points: [['1', '0.03'], ['5', '0.035']] as [string, string][],
+      fill: { ...content.fill, spec: { method: 'monotone-convex', options: {}, transform: 'none', extrapolation: 'flat', compounding: 'continuous', precision: 40, grid: { from: '1', to: '5', step: '1' }, at: null }, values: [['1', '0.03'], ['5', '0.035']] as [string, string][] },
+    }
+    const file = await write(curve)
+    const about = (await readWorkbookCells(file)).get(SHEET.about)!.map(r => r.join(' | '))
+    expect(about.filter(r => r === 'Rates read as | Continuous compounding')).toHaveLength(2)
+    const verdict = verifyWorkbookCells(await edited(file, (wb) => {
+      wb.getWorksheet(SHEET.about)!.eachRow((row) => { if (row.getCell(2).value === 'Continuous compounding') row.getCell(2).value = 'Annual compounding' })
+    }), lookup)
+    expect(verdict.kind).toBe('altered')
+    // content signed before curves stated their compounding has no such row and still verifies
+    const { compounding: _, ...older } = curve.table
+    const old = { ...curve, table: older, fill: { ...curve.fill, spec: { ...curve.fill.spec, compounding: undefined } } }
+    const oldSheets = await readWorkbookCells(await write(JSON.parse(JSON.stringify(old))))
+    expect(oldSheets.get(SHEET.about)!.map(r => r.join(' | ')).some(r => r.startsWith('Rates read as'))).toBe(false)
+    expect(verifyWorkbookCells(oldSheets, lookup).kind).toBe('genuine')
+  })
+
   it('text that starts with = + - @ is written with a leading apostrophe, never as a formula', async () => {
     const risky = { ...content, table: { ...content.table, name: '=HYPERLINK("http://x","y")' } }
     const file = await write(risky)
