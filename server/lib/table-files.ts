@@ -1,12 +1,14 @@
 import { REVIEW_CAUTION, METHODS, TRANSFORM_LISTING } from '../engine/index'
 import type { CompareResult } from '../engine/types'
-import { fromPerUnit } from '#shared/decimal-text'
+import { cmpDecimal, fromPerUnit } from '#shared/decimal-text'
 import { specRows, type SpecLike } from '#shared/fill-words'
 import { checkRows, verdictOf } from '#shared/check-words'
-import { VALUE_NAMES, axisHeading, valueHeading, type Axis, type AxisUnit, type TableKind, type ValueUnit } from '#shared/tables'
+import { COL_AXIS_LABELS, ULTIMATE_LABEL, VALUE_NAMES, axisHeading, valueHeading, type Axis, type AxisUnit, type ColAxis, type TableKind, type ValueUnit } from '#shared/tables'
 import { csvText, type CsvCell } from './csv'
 import { SHEET_V2, escaped, readableSheets, type ReadableRecord } from './signing/readable'
 import type { CellValue, SheetModel } from './signing/workbook-model'
+import type { ReadableRecordV3 } from './signing/readable-v3'
+import type { Triple } from './signing/content'
 
 // Unsigned working files: a version's chosen fill, and a comparison on the fill bench, as CSV and .xlsx. Every file says
 // in its first line (and its sheet names) that it is not signed off; values keep every digit, in the table's unit.
@@ -24,6 +26,29 @@ export function fillCsv(r: ReadableRecord, banner: string): string {
   const pairs = r.fill?.values ?? r.points
   const rows = pairs.map(([x, y]): CsvCell[] => [x, fromPerUnit(y, u.unit), ...(perUnit ? [y] : []), given.has(x) ? 'given' : null])
   return csvText([[banner], [CAUTION], [], header, ...rows])
+}
+
+/**
+ * A two-way version as CSV: one matrix of the fill's values (or the given cells when there is no fill), rows down and
+ * columns across (the ultimate column last), every digit in the table's unit; then the given cells as a matrix of their
+ * own, blank where a cell was to be filled.
+ */
+export function gridCsv(r: ReadableRecordV3, banner: string): string {
+  const unit = r.table.valueUnit as ValueUnit
+  const matrix = (title: string, triples: Triple[]): CsvCell[][] => {
+    const xs = [...new Set(triples.map(t => t[0]))]
+    const ds = [...new Set(triples.map(t => t[1]))]
+    // triples are sorted by row, then column (ultimate last); the columns of the first rows may be fewer than later ones
+    ds.sort((a, b) => (a === null ? 1 : b === null ? -1 : cmpDecimal(a, b)))
+    const at = new Map(triples.map(([x, d, y]) => [`${x}|${d}`, y]))
+    const corner = `${axisHeading(r.table.axis as Axis, r.table.axisUnit as AxisUnit)} down, ${COL_AXIS_LABELS[r.table.colAxis as ColAxis].toLowerCase()} (${r.table.colAxisUnit}) across`
+    return [[title], [corner, ...ds.map(d => (d === null ? ULTIMATE_LABEL : d))],
+      ...xs.map((x): CsvCell[] => [x, ...ds.map((d) => { const y = at.get(`${x}|${d}`); return y === undefined ? null : fromPerUnit(y, unit) })])]
+  }
+  const value = valueHeading(r.table.kind as TableKind, unit)
+  return csvText([[banner], [CAUTION], [`${value}, every digit`], [],
+    ...(r.fill ? [...matrix('Filled values', r.fill.values), []] : []),
+    ...matrix(r.fill ? 'Given cells (blank: filled above)' : 'Given cells (blank: to be filled)', r.cells)])
 }
 
 // Excel allows 31 characters in a sheet name: "About this table, not signed off" would lose its last letter

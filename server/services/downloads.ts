@@ -5,7 +5,7 @@ import { EXTRAPOLATION_LABELS } from '#shared/fills'
 import { transformWords } from '#shared/fill-words'
 import type { CompareInput } from '#shared/schemas/fills'
 import { TRANSFORM_LISTING } from '../engine/index'
-import { compareCsv, compareSheets, fillCsv, fillSheets, unitsOfRecord } from '../lib/table-files'
+import { compareCsv, compareSheets, fillCsv, fillSheets, gridCsv, unitsOfRecord } from '../lib/table-files'
 import { readableSheetsV3, writeWorkbook } from '../lib/signing'
 import { versionRecord } from './version-record'
 import type { CompareResponseDto } from '#shared/types/fills'
@@ -27,8 +27,8 @@ export async function fillDownload(access: OrgAccess, tableId: string, number: n
     : `NOT SIGNED OFF: a working copy of version ${r.version.number} of ${r.table.name} (${status}) and ${what}, made ${formatUtc(now)}. It may still change and has had no second check.`
   const fileName = `${safe(r.table.name)}-v${number}-NOT-SIGNED-OFF.${format}`
   if ('cells' in r) {
-    // a two-way table: its sheets as the signed workbook of format 3 has them; a CSV would need one layout of our choosing
-    if (format === 'csv') throw apiError(409, 'wrong-shape', 'A two-way table downloads as .xlsx (rows, columns and values); a CSV copy is not offered.')
+    // a two-way table: its sheets as the signed workbook of format 3 has them, or a CSV of matrices (rows down, columns across)
+    if (format === 'csv') return { fileName, contentType: TYPES.csv, data: gridCsv(r, banner) }
     return { fileName, contentType: TYPES.xlsx, data: await writeWorkbook(readableSheetsV3(r, [banner], []).map(s => ({ ...s, name: `${s.name}, not signed off`.slice(0, 31) })), now) }
   }
   if (format === 'csv') return { fileName, contentType: TYPES.csv, data: fillCsv(r, banner) }

@@ -12,6 +12,7 @@ import type { GraduationPreviewDto } from '#shared/types/graduation'
 import type { VersionDto } from '#shared/types/tables'
 import { findTable, findVersion } from './tables'
 import { insertPoints, readPoints } from './points-store'
+import { withExperience } from './experience-store'
 import { getVersion } from './versions'
 
 // The graduate step: Whittaker-Henderson graduation of a version's crude rates, shown with its fit tests before anything
@@ -30,7 +31,7 @@ async function graduationOf(access: OrgAccess, tableId: string, number: number, 
   }
   const version = await findVersion(access.org.id, tableId, number)
   const crude = await readPoints(version.id)
-  const request: GraduateRequest = { points: crude, order: input.order, smoothing: input.smoothing, precision: input.digits }
+  const request: GraduateRequest = { points: await withExperience(tableId, crude), order: input.order, smoothing: input.smoothing, precision: input.digits, exposureType: input.exposureType }
   const started = performance.now()
   let result: GraduateResult
   try { result = await runTask('graduate', request, { signal }) }
@@ -41,7 +42,7 @@ async function graduationOf(access: OrgAccess, tableId: string, number: number, 
 /** The graduation of the version's given points with its fit tests (read-only: any version). */
 export async function previewGraduation(access: OrgAccess, tableId: string, number: number, input: GraduationSettings, signal?: AbortSignal): Promise<GraduationPreviewDto> {
   const g = await graduationOf(access, tableId, number, input, signal)
-  return { result: g.result, crude: g.crude, withExposures: g.result.diagnostics.chiSquare !== null, lockVersion: g.version.lockVersion, engineMs: g.engineMs }
+  return { result: g.result, crude: g.crude, withExposures: g.result.spec.weights === 'exposure' || g.result.spec.weights === 'mixed', withDeaths: g.result.diagnostics.chiSquare !== null, lockVersion: g.version.lockVersion, engineMs: g.engineMs }
 }
 
 /**

@@ -5,13 +5,15 @@ import type { StoredSheet } from '../lib/import/read-workbook'
 const PICK_SHEET = `FROM imports i CROSS JOIN LATERAL (SELECT e AS s FROM jsonb_array_elements(i.sheets) e WHERE e->>'name' = :sheet LIMIT 1) picked`
 
 /**
- * One sheet of a stored upload with only the cells a mapping reads (its axis and value columns; the others left out):
+ * One sheet of a stored upload with only the cells a mapping reads (its axis, value and experience columns; the others left out):
  * PostgreSQL picks them out of the JSONB and sends one row per sheet row, so preview and commit never parse a whole
  * workbook in one piece (which held every other request for a few hundred ms at the cell cap). jsonb, not text[]: pg
  * parses JSON natively, arrays in JavaScript (about twice as slow). null: no such sheet.
  */
 export function loadMappedSheet(importId: string, m: ImportMapping, t?: Transaction): Promise<StoredSheet | null> {
-  return loadSheetColumns(importId, m.sheet, [m.axisColumn, ...m.columns.map(c => c.index)], t)
+  const e = m.experience
+  const experience = e ? [e.exposureColumn, ...(e.deathsColumn !== undefined ? [e.deathsColumn] : [])] : []
+  return loadSheetColumns(importId, m.sheet, [m.axisColumn, ...m.columns.map(c => c.index), ...experience], t)
 }
 
 /** The same for any list of columns (a matrix sheet reads its row axis column and every column of values). */

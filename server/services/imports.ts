@@ -8,6 +8,8 @@ import { ImportRefused } from '../lib/import/limits'
 import type { guessAxis } from '../lib/import/analyse'
 import { runTask } from '../lib/work/pool'
 import { insertPointChunks } from './points-store'
+import { insertExperience } from './experience-store'
+import { GRADUATED_KINDS } from '#shared/schemas/graduation'
 import { HEAVY_UPLOAD_BYTES, newRunKey, startRun } from './work/start'
 import { importDto, type ImportReadInput, type ImportRow } from './work/kinds/import-read'
 import { loadMappedSheet } from './import-cells'
@@ -96,6 +98,7 @@ export async function commitImport(event: H3Event, access: OrgAccess, id: string
          VALUES (:orgId, :tableId, 1, 'draft', :userId, :notes, :hash) RETURNING id`,
         { replacements: { orgId: access.org.id, tableId: tr!.id, userId: access.user.id, notes: `Imported from ${row.file_name}, sheet '${m.sheet}'.`, hash: table.contentHash }, type: QueryTypes.SELECT, transaction: t })
       await insertPointChunks(vr!.id, table.chunks, t)
+      if (v.experience?.length && GRADUATED_KINDS.includes(table.kind)) await insertExperience(tr!.id, v.experience, t)
       await audit(event, { orgId: access.org.id, action: 'table.create', objectType: 'rate_table', objectId: tr!.id, detail: { name: table.name, kind: table.kind, valueUnit: table.valueUnit, importId: id } }, t)
       await audit(event, { orgId: access.org.id, action: 'version.create', objectType: 'table_version', objectId: vr!.id, detail: { tableId: tr!.id, number: 1, points: table.pointCount, contentHash: table.contentHash, acceptedWarnings: warnings.length } }, t)
       created.push({ id: tr!.id, name: table.name, versionId: vr!.id, number: 1 })

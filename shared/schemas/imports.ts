@@ -33,8 +33,20 @@ export const importMappingSchema = z.object({
   edits: z.record(z.string().regex(/^\d+:\d+$/), z.string().max(60)).default({}),
   description: z.string().max(4000).default(''),
   bands: bandAnswerSchema.optional(),
+  /** columns of experience behind crude rates: exposure (graduation weights) and optionally deaths (the fit tests) */
+  experience: z.object({
+    exposureColumn: z.number().int().min(0).max(IMPORT_COLUMNS_CAP - 1),
+    deathsColumn: z.number().int().min(0).max(IMPORT_COLUMNS_CAP - 1).optional(),
+  }).optional(),
 }).superRefine((m, ctx) => {
   const names = new Set<string>()
+  const e = m.experience
+  if (e) {
+    const taken = [m.axisColumn, ...m.columns.map(c => c.index)]
+    if (taken.includes(e.exposureColumn)) ctx.addIssue({ code: 'custom', path: ['experience', 'exposureColumn'], message: 'The exposure column cannot also be the axis or a value column' })
+    if (e.deathsColumn !== undefined && [...taken, e.exposureColumn].includes(e.deathsColumn)) ctx.addIssue({ code: 'custom', path: ['experience', 'deathsColumn'], message: 'The deaths column must be a column of its own' })
+    if (m.bands) ctx.addIssue({ code: 'custom', path: ['experience'], message: 'Exposures and deaths go with single ages; a band axis is split first' })
+  }
   m.columns.forEach((c, i) => {
     if (c.index === m.axisColumn) ctx.addIssue({ code: 'custom', path: ['columns', i, 'index'], message: 'The axis column cannot also be a value column' })
     const key = c.name.toLowerCase()

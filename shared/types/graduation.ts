@@ -6,8 +6,10 @@ export type { GraduateResult, GraduationDiagnostics, GraduationSpec } from '../e
 export interface GraduationPreviewDto {
   result: GraduateResult
   crude: { x: string, y: string }[]
-  /** Deaths and exposures were known for every point (the import mapped them): the chi-square test applies. */
+  /** Exposures were imported for the table: they weight the graduation. */
   withExposures: boolean
+  /** Deaths and exposures were known for every point: the standardised deviations and the chi-square test apply. */
+  withDeaths: boolean
   lockVersion: number
   engineMs: number
 }

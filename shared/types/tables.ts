@@ -68,7 +68,9 @@ export interface ImportDto {
   expiresAt: string
 }
 
-export interface ColumnSuggestion { index: number; header: string; role: 'axis' | 'value' | 'ignore'; kind: TableKind; valueUnit: ValueUnit; unitReason: string | null }
+/** What a column of a one-way sheet is used as: the axis, values (a new table), the experience behind crude rates, or nothing. */
+export type ColumnRole = 'axis' | 'value' | 'exposure' | 'deaths' | 'ignore'
+export interface ColumnSuggestion { index: number; header: string; role: ColumnRole; kind: TableKind; valueUnit: ValueUnit; unitReason: string | null }
 
 export interface ImportSheetDto {
   name: string
@@ -103,6 +105,8 @@ export interface ImportPreviewDto {
   /** rows under the header with every mapped cell, for showing and fixing flagged cells */
   rows: { row: number; cells: (string | null)[] }[]
   columns: number[]
+  /** The experience columns read (null when none were mapped): at how many axis values an exposure, and deaths too. */
+  experience: { exposures: number; deaths: number } | null
 }
 
 export interface ImportCommitDto { tables: { id: string; name: string; versionId: string; number: number }[] }

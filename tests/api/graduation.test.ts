@@ -123,3 +123,51 @@ describe('the bench\u2019s old-age closure', () => {
     expect(unknown.status).toBe(400)
   })
 })
+
+describe('graduate: weights and fit tests from imported exposures and deaths', () => {
+  // experience invented for the test: exposures falling with age, deaths the Makeham rates above times the exposure,
+  // rounded to whole deaths; the crude rate is deaths / exposure
+  const experience = crude.map((p, i) => {
+    const exposure = 4000 - 110 * i
+    const deaths = Math.round(Number(p.y) * exposure)
+    return { x: p.x, exposure: String(exposure), deaths: String(deaths), y: canonicalDecimal((deaths / exposure).toPrecision(8)) }
+  })
+  const csv = `age,central exposure,deaths,crude q\n${experience.map(e => `${e.x},${e.exposure},${e.deaths},${e.y}`).join('\n')}\n`
+  const mapping = (name: string, extra: Record<string, unknown> = {}) => ({ sheet: 'crude', headerRow: 0, axisColumn: 0, axis: 'age', axisUnit: 'years', columns: [{ index: 3, name, kind: 'mortality', valueUnit: 'per-unit' }], experience: { exposureColumn: 1, deathsColumn: 2 }, ...extra })
+
+  it('are suggested by their headings, read at preview, kept with the table, and weight the graduation (the engine\u2019s answer with them, chi-square included)', async () => {
+    const up = await upload(actuary, LARKSPUR, 'crude.csv', csv)
+    expect(up.status).toBe(201)
+    const described = await actuary.get<{ columns: { index: number, role: string }[] }>(`/api/orgs/${LARKSPUR}/imports/${up.body.id}`)
+    expect(described.body.columns.map(c => c.role)).toEqual(['axis', 'exposure', 'deaths', 'value'])
+    const name = `Zz crude with experience ${tag()}`
+    const preview = await actuary.post<{ experience: { exposures: number, deaths: number }, errors: number }>(`/api/orgs/${LARKSPUR}/imports/${up.body.id}/preview`, mapping(name))
+    expect(preview.status).toBe(200)
+    expect(preview.body).toMatchObject({ errors: 0, experience: { exposures: 30, deaths: 30 } })
+    const done = await actuary.post<{ tables: { id: string }[] }>(`/api/orgs/${LARKSPUR}/imports/${up.body.id}/commit`, { mapping: mapping(name) })
+    expect(done.status).toBe(201)
+    const id = done.body.tables[0]!.id
+    expect(await count('SELECT 1 FROM table_experience WHERE table_id = :id AND deaths IS NOT NULL', { id })).toBe(30)
+    for (const exposureType of ['central', 'initial'] as const) {
+      const r = await actuary.post<{ result: GraduateResult, withExposures: boolean, withDeaths: boolean }>(`/api/orgs/${LARKSPUR}/tables/${id}/versions/1/graduate`, { order: 2, smoothing: '50', digits: 12, exposureType })
+      expect(r.status).toBe(200)
+      expect(r.body).toMatchObject({ withExposures: true, withDeaths: true })
+      const direct = graduate({ points: experience.map(e => ({ x: e.x, y: e.y, exposure: e.exposure, deaths: e.deaths })), order: 2, smoothing: '50', precision: 12, exposureType })
+      expect(r.body.result).toEqual(direct)
+      expect(r.body.result.spec.weights).toBe('exposure')
+      expect(r.body.result.diagnostics.chiSquare).not.toBeNull()
+    }
+  })
+
+  it('refuses an exposure that is not a positive number (naming the cell), deaths without an exposure column, and a column used twice', async () => {
+    const bad = csv.replace(`\n60,4000,`, '\n60,-4000,')
+    const up = await upload(actuary, LARKSPUR, 'crude.csv', bad)
+    const preview = await actuary.post<{ findings: { code: string, cell: string | null }[], errors: number }>(`/api/orgs/${LARKSPUR}/imports/${up.body.id}/preview`, mapping(`Zz bad exposure ${tag()}`))
+    expect(preview.status).toBe(200)
+    expect(preview.body.findings.filter(f => f.code === 'experience-invalid').map(f => f.cell)).toEqual(['B2'])
+    const noExposure = await actuary.post<{ data: { code: string } }>(`/api/orgs/${LARKSPUR}/imports/${up.body.id}/preview`, mapping('Zz x', { experience: { deathsColumn: 2 } }))
+    expect(noExposure.status).toBe(400)
+    const twice = await actuary.post(`/api/orgs/${LARKSPUR}/imports/${up.body.id}/preview`, mapping('Zz x', { experience: { exposureColumn: 3, deathsColumn: 2 } }))
+    expect(twice.status).toBe(400)
+  })
+})

@@ -62,6 +62,21 @@ describe('a signed two-way table', () => {
     expect(altered.body.differences?.map(d => d.cell)).toEqual(['Filled values!D3'])
   })
 
+  it('downloads unsigned as CSV: the filled values and the given cells as matrices, rows down and columns across, every digit', async () => {
+    const res = await fetch(`${BASE}${base()}/versions/1/download?format=csv`, { headers: { cookie: auditor.cookie, 'x-forwarded-for': auditor.address } })
+    expect(res.status).toBe(200)
+    expect(res.headers.get('content-type')).toMatch(/text\/csv/)
+    const lines = (await res.text()).replace(/^\uFEFF/, '').split('\r\n')
+    expect(lines[0]).toMatch(/^"?NOT SIGNED OFF/)
+    const filled = lines.indexOf('Filled values')
+    expect(lines[filled + 1]).toBe('"Age (years) down, duration (years) across",0,1,2,3,4,Ultimate')
+    expect(lines[filled + 2]).toBe('30,0.5376,' + lines[filled + 2]!.split(',').slice(2).join(','))
+    expect(lines.slice(filled + 2).findIndex(l => l === '')).toBe(41) // ages 30 to 70
+    const given = lines.indexOf('Given cells (blank: filled above)')
+    expect(given).toBeGreaterThan(filled)
+    expect(lines[given + 2]!.split(',')[6]).toBe('1.2517') // age 30, ultimate, per mille
+  })
+
   it('the read API answers the signed cells (format 3) under a signature that holds', async () => {
     const t = await admin.post<{ token: string }>(`/api/orgs/${LARKSPUR}/read-tokens`, { name: `Select reader ${Math.random().toString(36).slice(2, 6)}` })
     const res = await fetch(`${BASE}/api/v1/tables/${tableId}`, { headers: { authorization: `Bearer ${t.body.token}`, accept: 'application/json' } })

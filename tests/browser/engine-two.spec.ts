@@ -115,6 +115,40 @@ test('an analyst imports deaths by age band, is asked what the values are, and s
   await expect(page.getByTestId('import-done')).toContainText(name)
 })
 
+test('an analyst imports crude rates with their exposures and deaths; the graduation is weighted by them and tested against expected deaths', async ({ page }) => {
+  await signIn(page, PEOPLE.analyst)
+  await page.getByTestId('nav-import').click()
+  // an invented experience study (test data): exposures falling with age, deaths, crude q = deaths / exposure
+  const rows = Array.from({ length: 20 }, (_, i) => {
+    const exposure = 3000 - 100 * i
+    const deaths = Math.round(exposure * 0.006 * 1.1 ** i * (1 + [0.06, -0.05, 0.02, -0.04][i % 4]!))
+    return `${60 + i},${exposure},${deaths},${(deaths / exposure).toPrecision(6)}`
+  })
+  const csv = `Age,Exposure (years lived),Deaths,Crude q\n${rows.join('\n')}\n`
+  await page.getByTestId('import-file').setInputFiles({ name: 'study-with-experience.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) })
+  await page.waitForURL(/\/imports\/[0-9a-f-]{36}/)
+  await page.getByTestId('to-columns').click()
+  await expect(page.getByLabel('Use of column Exposure (years lived)')).toHaveValue('exposure')
+  await expect(page.getByLabel('Use of column Deaths')).toHaveValue('deaths')
+  const name = `Zz study with experience ${Date.now()}`
+  await page.getByLabel('Table name for Crude q').fill(name)
+  await page.getByLabel('Kind for Crude q').selectOption({ label: 'Mortality q_x' })
+  await page.getByLabel('Unit for Crude q').selectOption({ label: 'per unit' })
+  await page.getByTestId('to-check').click()
+  await expect(page.getByTestId('experience-count')).toContainText('exposures on 20 rows, deaths on 20')
+  await shot(page, 'import-experience')
+  await page.getByTestId('create-drafts').click()
+  await expect(page.getByTestId('import-done')).toContainText(name)
+  await page.goto(`/orgs/${ORG}/tables/${await tableId(page, name)}`)
+  await page.getByTestId('open-graduate').click()
+  await expect(page.getByTestId('graduate-weights')).toContainText('the imported exposures, with deaths for the chi-square test')
+  await expect(page.getByTestId('graduate-test-chi-square')).not.toContainText('Needs deaths and exposures')
+  await page.getByTestId('graduate-exposure').selectOption('initial')
+  await page.getByTestId('graduate-run').click()
+  await expect(page.getByTestId('graduate-weights')).toContainText('the imported exposures')
+  await shot(page, 'graduate-with-experience')
+})
+
 test('a curve states its compounding, and Smith-Wilson on the bench shows its calibrated alpha and convergence check in words', async ({ page }) => {
   await signIn(page, PEOPLE.actuary)
   const id = await tableId(page, 'Discount curve 2026-09-30')

@@ -80,5 +80,28 @@ export function suggestColumns(sheet: StoredSheet, headerRow: number): ColumnSug
     const { unit, reason } = guessUnit(title, values, kind)
     out.push({ index: c, header: title, role: 'value', kind, valueUnit: unit, unitReason: reason })
   }
+  return withExperience(out, sheet, headerRow)
+}
+
+/** A heading that names exposures or counts of deaths (not a rate of them: "deaths per 1000" is a rate). */
+function experienceRole(header: string): 'exposure' | 'deaths' | null {
+  if (/rate|per\s*(1000|mille|cent|unit)|%|‰|q_?x|prob/i.test(header)) return null
+  return /expos/i.test(header) ? 'exposure' : /death|claims|decrement/i.test(header) ? 'deaths' : null
+}
+
+/**
+ * Beside a column of rates by single ages, a column headed as exposures (and one as deaths) is the experience behind
+ * them: suggested as such, not as tables of their own. Without rates beside them, or on a band axis (totals to split),
+ * they stay values.
+ */
+function withExperience(out: ColumnSuggestion[], sheet: StoredSheet, headerRow: number): ColumnSuggestion[] {
+  const axis = out.find(o => o.role === 'axis')
+  const banded = axis && sheet.rows.slice(headerRow + 1, headerRow + 51).some(r => parseBand(r[axis.index] ?? null) !== null)
+  const values = out.filter(o => o.role === 'value')
+  if (banded || !values.some(o => experienceRole(o.header) === null)) return out
+  for (const role of ['exposure', 'deaths'] as const) {
+    const first = values.find(o => experienceRole(o.header) === role)
+    if (first) Object.assign(first, { role, kind: 'other', valueUnit: 'per-unit', unitReason: null })
+  }
   return out
 }

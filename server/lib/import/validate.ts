@@ -10,11 +10,13 @@ import type { BandSummary } from '#shared/types/tables'
 import { resolveBands, type BandValue } from './bands'
 
 export interface ValidatedTable { name: string; column: number; kind: ImportMapping['columns'][number]['kind']; valueUnit: ImportMapping['columns'][number]['valueUnit']; points: PointDto[] }
-export interface Validation { findings: ImportFinding[]; tables: ValidatedTable[]; flaggedRows: number[]; bands: BandSummary | null }
+/** The experience at one axis value (per-unit decimals as given): exposure > 0, deaths >= 0 or null when not given. */
+export interface ExperienceRow { x: string; exposure: string; deaths: string | null }
+export interface Validation { findings: ImportFinding[]; tables: ValidatedTable[]; flaggedRows: number[]; bands: BandSummary | null; experience: ExperienceRow[] | null }
 
 const MAX_FINDINGS = 1000
 
-export function sortPoints(points: PointDto[]): PointDto[] {
+export function sortPoints<T extends { x: string }>(points: T[]): T[] {
   return points.map(p => ({ p, x: canonicalDecimal(p.x) })).sort((a, b) => cmpDecimal(a.x, b.x)).map(e => e.p)
 }
 
@@ -49,6 +51,27 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
   // an axis of bands ("55-59"): the values of each column by band, resolved in finish (resolveBands)
   let bandRows = 0
   const banded: BandValue[][] = m.columns.map(() => [])
+  const experience: ExperienceRow[] = []
+
+  /** An exposure or a deaths count: a plain number (no percentage), at least 0 (an exposure more than 0); null when blank. */
+  const count = (r: number, c: number, what: 'exposure' | 'deaths'): string | null | undefined => {
+    const cell = cellAt(r, c)
+    if (cell.formula) { add('error', 'formula', r, c, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.'); return undefined }
+    if (cell.text === null) return null
+    const p = parseNumberText(cell.text)
+    if (!p.ok) { add('error', 'not-a-number', r, c, `'${cell.text}' ${p.reason}`); return undefined }
+    const low = what === 'exposure' ? cmpDecimal(p.value, '0') <= 0 : cmpDecimal(p.value, '0') < 0
+    if (p.scale !== 1 || low) { add('error', 'experience-invalid', r, c, `'${cell.text}': ${what === 'exposure' ? 'an exposure is a number of lives or years lived, more than 0' : 'deaths are a count, 0 or more'}`); return undefined }
+    return canonicalDecimal(p.value)
+  }
+  const checkExperience = (r: number, x: string) => {
+    const e = m.experience!
+    const exposure = count(r, e.exposureColumn, 'exposure')
+    const deaths = e.deathsColumn === undefined ? null : count(r, e.deathsColumn, 'deaths')
+    if (exposure === null) add('warning', 'exposure-blank', r, e.exposureColumn, `no exposure at ${axisName} ${x}; graduation gives it weight 1`)
+    if (deaths === null && e.deathsColumn !== undefined) add('warning', 'deaths-blank', r, e.deathsColumn, `no deaths at ${axisName} ${x}; the test against expected deaths needs them at every ${axisName}`)
+    if (exposure) experience.push({ x, exposure, deaths: deaths ?? null })
+  }
 
   const checkRow = (r: number) => {
     const axisCell = cellAt(r, m.axisColumn)
@@ -84,6 +107,7 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
         if (!rule || rule.severity === 'warning') x = first === undefined ? key : null
       }
     }
+    if (m.experience && x !== null && !band) checkExperience(r, x)
     m.columns.forEach((col, i) => {
       const cell = valueCells[i]!
       if (cell.formula) return add('error', 'formula', r, col.index, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.')
@@ -115,7 +139,7 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
       else if (t.points.length === 1) add('warning', 'one-point', null, t.column, `"${t.name}" has a single point; interpolation needs at least two`)
       if (unsortedReported) t.points = sortPoints(t.points)
     }
-    return { findings, tables, flaggedRows: [...flagged].sort((a, b) => a - b), bands }
+    return { findings, tables, flaggedRows: [...flagged].sort((a, b) => a - b), bands, experience: m.experience ? sortPoints(experience) : null }
   }
   return { firstRow: m.headerRow + 1, endRow: sheet.rows.length, checkRow, finish }
 }

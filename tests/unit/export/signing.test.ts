@@ -4,7 +4,7 @@ import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import {
   SIGNED_FORMAT_V1, SHEET_V2, canonicalBytes, contentSha256, readWorkbookCells, signatureSheetField, verifyWorkbookCells, workbookModel, writeSignedWorkbook, writeWorkbook,
-  type SignedContentV1,
+  type SignedContentV1, type SignedContentV2,
 } from '~~/server/lib/signing'
 import { canonicalJson } from '~~/server/lib/canonical-json'
 import { arbitraryContent, headOf, signatureOf, testKey } from './fixtures'
@@ -105,7 +105,8 @@ describe('signed export (format 2): fixed cases', () => {
       points: [['1', '0.03'], ['5', '0.035']] as [string, string][],
       fill: { ...content.fill, spec: { method: 'monotone-convex', options: {}, transform: 'none', extrapolation: 'flat', compounding: 'continuous', precision: 40, grid: { from: '1', to: '5', step: '1' }, at: null }, values: [['1', '0.03'], ['5', '0.035']] as [string, string][] },
     }
-    const file = await write(curve)
+    const writeAny = (c: object) => writeSignedWorkbook(c as SignedContentV2, signatureOf(c as SignedContentV2, key), headOf(key))
+    const file = await writeAny(curve)
     const about = (await readWorkbookCells(file)).get(SHEET.about)!.map(r => r.join(' | '))
     expect(about.filter(r => r === 'Rates read as | Continuous compounding')).toHaveLength(2)
     const verdict = verifyWorkbookCells(await edited(file, (wb) => {
@@ -115,7 +116,7 @@ describe('signed export (format 2): fixed cases', () => {
     // content signed before curves stated their compounding has no such row and still verifies
     const { compounding: _, ...older } = curve.table
     const old = { ...curve, table: older, fill: { ...curve.fill, spec: { ...curve.fill.spec, compounding: undefined } } }
-    const oldSheets = await readWorkbookCells(await write(JSON.parse(JSON.stringify(old))))
+    const oldSheets = await readWorkbookCells(await writeAny(JSON.parse(JSON.stringify(old))))
     expect(oldSheets.get(SHEET.about)!.map(r => r.join(' | ')).some(r => r.startsWith('Rates read as'))).toBe(false)
     expect(verifyWorkbookCells(oldSheets, lookup).kind).toBe('genuine')
   })

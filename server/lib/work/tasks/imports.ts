@@ -2,7 +2,7 @@ import type { ImportMapping } from '#shared/schemas/imports'
 import type { ColumnSuggestion, ImportFinding, ImportPreviewDto, ImportSheetDto, ImportSheetSummary } from '#shared/types/tables'
 import { guessAxis, proposeHeaderRow, suggestColumns } from '../../import/analyse'
 import { readWorkbook, type StoredSheet } from '../../import/read-workbook'
-import { validateMapping } from '../../import/validate'
+import { validateMapping, type ExperienceRow } from '../../import/validate'
 import { suggestMatrix, type MatrixSuggestion } from '../../import/matrix'
 import { pointsContentHash } from '../../points-hash'
 import { chunkPoints, type PointChunk } from '../point-chunks'
@@ -51,9 +51,11 @@ export function previewTask(input: { sheetsJson: string, mapping: ImportMapping 
   const v = validateMapping(sheet, m)
   const shown = new Set<number>(v.flaggedRows.slice(0, 500))
   for (let r = m.headerRow + 1; r < sheet.rows.length && r <= m.headerRow + 30; r++) shown.add(r)
-  const columns = [m.axisColumn, ...m.columns.map(c => c.index)]
+  const e = m.experience
+  const columns = [m.axisColumn, ...m.columns.map(c => c.index), ...(e ? [e.exposureColumn, ...(e.deathsColumn !== undefined ? [e.deathsColumn] : [])] : [])]
   return {
     bands: v.bands,
+    experience: v.experience && { exposures: v.experience.length, deaths: v.experience.filter(r => r.deaths !== null).length },
     findings: v.findings,
     tables: v.tables.map(t => ({ name: t.name, kind: t.kind, valueUnit: t.valueUnit, pointCount: t.points.length, sample: t.points.slice(0, 5) })),
     rows: [...shown].sort((a, b) => a - b).map(r => ({ row: r, cells: columns.map(c => sheet.rows[r]?.[c] ?? null) })),
@@ -62,7 +64,7 @@ export function previewTask(input: { sheetsJson: string, mapping: ImportMapping 
 }
 
 export interface ValidatedForInsert { name: string, kind: ImportMapping['columns'][number]['kind'], valueUnit: ImportMapping['columns'][number]['valueUnit'], pointCount: number, contentHash: string, chunks: PointChunk[] }
-export interface ValidateOutput { findings: ImportFinding[], tables: ValidatedForInsert[] }
+export interface ValidateOutput { findings: ImportFinding[], tables: ValidatedForInsert[], experience: ExperienceRow[] | null }
 
 /** The same rules as the preview, with each table's points hashed and joined for the INSERT. */
 export function validateTask(input: { sheetsJson: string, mapping: ImportMapping }): ValidateOutput {
@@ -72,5 +74,6 @@ export function validateTask(input: { sheetsJson: string, mapping: ImportMapping
   return {
     findings: v.findings,
     tables: blocked ? [] : v.tables.map(t => ({ name: t.name, kind: t.kind, valueUnit: t.valueUnit, pointCount: t.points.length, contentHash: pointsContentHash(t.points), chunks: chunkPoints(t.points) })),
+    experience: blocked ? null : v.experience,
   }
 }
