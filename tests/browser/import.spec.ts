@@ -7,12 +7,18 @@ test('an analyst imports the demo workbook, fixes the flagged cell, creates the 
   await page.getByTestId('nav-import').click()
   await expect(page.getByRole('heading', { name: 'Import a spreadsheet' })).toBeVisible()
   await shot(page, 'import-upload')
+  // the sheet is described once: taking the proposed header row must not fetch it again (that refetch reset the
+  // mapping, and a table name typed meanwhile was lost)
+  const described: string[] = []
+  page.on('request', (r) => { if (r.method() === 'GET' && /\/api\/orgs\/[^/]+\/imports\/[0-9a-f-]{36}(\?|$)/.test(r.url())) described.push(r.url()) })
   await page.getByTestId('import-file').setInputFiles('public/demo/larkspur-pensioner-study-2026.xlsx')
   await page.waitForURL(/\/imports\/[0-9a-f-]{36}/)
 
   // sheet and header: the header row under the notes is proposed
   await expect(page.getByTestId('sheet-step')).toBeVisible()
   await expect(page.getByTestId('header-row')).toHaveValue('5')
+  await page.waitForLoadState('networkidle')
+  expect(described.filter(u => /headerRow=/.test(u))).toEqual([])
   await shot(page, 'import-sheet')
   await page.getByTestId('to-columns').click()
 
