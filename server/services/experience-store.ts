@@ -6,13 +6,14 @@ import type { ExperienceRow } from '../lib/import/validate'
 // The experience behind a table of crude rates (migration 1301): exposure and deaths by axis value, stored once at the
 // import and read by the graduate step, which weights by exposure and tests the fit against expected deaths.
 
-/** Stores the rows for a new table (one statement: arrays unnested by PostgreSQL, exact as NUMERIC). */
+/** Stores the rows for a new table in one statement, as cells-store.ts does: decimal texts bound as joined lists. */
 export async function insertExperience(tableId: string, rows: ExperienceRow[], t: Transaction): Promise<void> {
   await useDb().query(
     `INSERT INTO table_experience (table_id, x, exposure, deaths)
-     SELECT :tableId, x::numeric, e::numeric, NULLIF(d, '')::numeric FROM unnest(ARRAY[:xs]::text[], ARRAY[:es]::text[], ARRAY[:ds]::text[]) AS u(x, e, d)`,
-    // deaths not given travel as '' (NULLIF makes them NULL): the replacements cannot carry NULL inside an array
-    { replacements: { tableId, xs: rows.map(r => r.x), es: rows.map(r => r.exposure), ds: rows.map(r => r.deaths ?? '') }, transaction: t },
+     SELECT $tableId, x::numeric, e::numeric, nullif(d, '')::numeric
+     FROM unnest(string_to_array($xs, ','), string_to_array($es, ','), string_to_array($ds, ',')) AS u(x, e, d)`,
+    // deaths not given travel as an empty text, which nullif makes NULL
+    { bind: { tableId, xs: rows.map(r => r.x).join(','), es: rows.map(r => r.exposure).join(','), ds: rows.map(r => r.deaths ?? '').join(',') }, transaction: t },
   )
 }
 

@@ -1,6 +1,6 @@
 import { QueryTypes } from 'sequelize'
 import type { H3Event } from 'h3'
-import { EngineError, METHODS, TRANSFORM_LISTING, ENGINE_VERSION, REVIEW_CAUTION } from '../engine/index'
+import { METHODS, TRANSFORM_LISTING, ENGINE_VERSION, REVIEW_CAUTION } from '../engine/index'
 import { runTask } from '../lib/work/pool'
 import type { FillTaskOutput } from '../lib/work/tasks/engine'
 import type { OrgAccess } from '../utils/auth'
@@ -13,6 +13,7 @@ import { buildFillRequest } from './fill-request'
 import { specRows } from '#shared/fill-words'
 import { HEAVY_WORK, newRunKey, startRun } from './work/start'
 import type { CompareRunInput } from './work/kinds/compare'
+import { engineFailure } from './engine-refusal'
 
 type Row = Record<string, unknown>
 
@@ -21,11 +22,6 @@ export function fillMethods(): FillMethodsDto {
 }
 
 /** An engine refusal is the user's to fix: 400 with the engine's own words. */
-function engineFailure(error: unknown): never {
-  if (error instanceof EngineError) throw apiError(400, 'engine-refused', error.message, { engineCode: error.code, point: error.point })
-  throw error
-}
-
 /** The one-way bench refuses a two-way table (its cells go to the two-way bench: services/grid-fills.ts). */
 function oneWay<T extends { shape: string }>(table: T): T {
   if (table.shape === 'two-way') throw apiError(409, 'wrong-shape', 'This is a two-way table: use the two-way fill bench (a method per axis).')

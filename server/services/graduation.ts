@@ -1,7 +1,6 @@
 import { QueryTypes } from 'sequelize'
 import type { H3Event } from 'h3'
 import { performance } from 'node:perf_hooks'
-import { EngineError } from '../engine/index'
 import type { GraduateRequest, GraduateResult } from '../engine/types'
 import { runTask } from '../lib/work/pool'
 import { pointsContentHash } from '../lib/points-hash'
@@ -14,14 +13,10 @@ import { findTable, findVersion } from './tables'
 import { insertPoints, readPoints } from './points-store'
 import { withExperience } from './experience-store'
 import { getVersion } from './versions'
+import { engineFailure } from './engine-refusal'
 
 // The graduate step: Whittaker-Henderson graduation of a version's crude rates, shown with its fit tests before anything
 // is stored, then (on an explicit request with reasons) made a new working draft. The engine runs in the worker pool.
-
-function engineFailure(error: unknown): never {
-  if (error instanceof EngineError) throw apiError(400, 'engine-refused', error.message, { engineCode: error.code, point: error.point })
-  throw error
-}
 
 async function graduationOf(access: OrgAccess, tableId: string, number: number, input: GraduationSettings, signal?: AbortSignal) {
   const table = await findTable(access.org.id, tableId)

@@ -1,6 +1,6 @@
 import { QueryTypes } from 'sequelize'
 import type { H3Event } from 'h3'
-import { EngineError, METHODS, REVIEW_CAUTION, TRANSFORM_LISTING, type SelectFillRequest } from '../engine/index'
+import { METHODS, REVIEW_CAUTION, TRANSFORM_LISTING, type SelectFillRequest } from '../engine/index'
 import { runTask } from '../lib/work/pool'
 import type { OrgAccess } from '../utils/auth'
 import type { GridCompareInput, GridFillInput } from '#shared/schemas/grid-fills'
@@ -10,17 +10,13 @@ import { AXIS_LABELS, COL_AXIS_LABELS, type ColAxis } from '#shared/tables'
 import { FITTED_ON, findTable, findVersion } from './tables'
 import { insertCells, readCells } from './cells-store'
 import type { RateTable } from '../database/models'
+import { engineFailure } from './engine-refusal'
 
 // The two-way fill bench (issue 17): compare choices of a method per axis on the stored cells, then record one as the
 // draft's fill (values re-computed on the server, never taken from the browser) under the draft's lock, audited; the
 // stale-fill trigger (migrations 0701 and 1201) ties it to the cells it was fitted on.
 
 type Row = Record<string, unknown>
-
-function engineFailure(error: unknown): never {
-  if (error instanceof EngineError) throw apiError(400, 'engine-refused', error.message, { engineCode: error.code, point: error.point })
-  throw error
-}
 
 async function twoWay(orgId: string, tableId: string): Promise<RateTable> {
   const table = await findTable(orgId, tableId)

@@ -9,8 +9,8 @@ import { canonicalDecimal } from '#shared/decimal-text'
 import { gridContentHash, sortCells } from '../lib/points-hash'
 import { RateTable } from '../database/models'
 import { insertCells } from './cells-store'
-import { findTable, findVersion } from './tables'
-import { describeTable, getVersion } from './versions'
+import { findTable } from './tables'
+import { claimDraft, describeTable, getVersion } from './versions'
 
 // Two-way tables (issue 17): made with their given cells, saved under the same optimistic lock, hash, audit and
 // freeze rules as one-way points (migration 1201 gives the cell tables the 0401 freeze trigger and the 0701 hash).
@@ -62,19 +62,10 @@ export async function saveCells(event: H3Event, access: OrgAccess, tableId: stri
   const cells = checkCells(table.kind, input.cells, table.hasUltimate)
   const hash = gridContentHash(cells)
   await inTransaction(async (t) => {
-    const rows = await useDb().query<{ id: string, lock_version: number }>(
-      `UPDATE table_versions SET lock_version = lock_version + 1, content_hash = :hash, notes = coalesce(:notes, notes), updated_at = now()
-       WHERE org_id = :orgId AND table_id = :tableId AND number = :number AND status = 'draft' AND lock_version = :lock RETURNING id, lock_version`,
-      { replacements: { hash, notes: input.notes ?? null, orgId: access.org.id, tableId, number, lock: input.lockVersion }, type: QueryTypes.SELECT, transaction: t })
-    if (!rows.length) {
-      const current = await findVersion(access.org.id, tableId, number, { transaction: t })
-      if (current.status !== 'draft') throw apiError(409, 'not-a-draft', 'Only a working draft can be edited; start a new draft from this version.')
-      throw apiError(409, 'draft-conflict', 'Someone saved this draft after you opened it. Your edits are kept on screen: reload their version, then apply yours again.', { lockVersion: current.lockVersion })
-    }
-    const versionId = rows[0]!.id
+    const { versionId, lockVersion } = await claimDraft(access, tableId, number, { hash, notes: input.notes, lockVersion: input.lockVersion }, t)
     await useDb().query('DELETE FROM version_grid_points WHERE version_id = :versionId', { replacements: { versionId }, transaction: t })
     await insertCells(versionId, cells, t)
-    await audit(event, { orgId: access.org.id, action: 'version.points.save', objectType: 'table_version', objectId: versionId, detail: { tableId, number, cells: cells.length, contentHash: hash, lockVersion: rows[0]!.lock_version } }, t)
+    await audit(event, { orgId: access.org.id, action: 'version.points.save', objectType: 'table_version', objectId: versionId, detail: { tableId, number, cells: cells.length, contentHash: hash, lockVersion } }, t)
   })
   return getVersion(access.org.id, tableId, number)
 }

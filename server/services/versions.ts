@@ -1,4 +1,4 @@
-import { QueryTypes } from 'sequelize'
+import { QueryTypes, type Transaction } from 'sequelize'
 import type { H3Event } from 'h3'
 import type { OrgAccess } from '../utils/auth'
 import type { TableDto, VersionDto, VersionSummaryDto } from '#shared/types/tables'
@@ -101,19 +101,10 @@ export async function savePoints(event: H3Event, access: OrgAccess, tableId: str
   const points = sortPoints(input.points)
   const hash = pointsContentHash(points)
   await inTransaction(async (t) => {
-    const rows = await useDb().query<Row>(
-      `UPDATE table_versions SET lock_version = lock_version + 1, content_hash = :hash, notes = coalesce(:notes, notes), updated_at = now()
-       WHERE org_id = :orgId AND table_id = :tableId AND number = :number AND status = 'draft' AND lock_version = :lock RETURNING id, lock_version`,
-      { replacements: { hash, notes: input.notes ?? null, orgId: access.org.id, tableId, number, lock: input.lockVersion }, type: QueryTypes.SELECT, transaction: t })
-    if (!rows.length) {
-      const current = await findVersion(access.org.id, tableId, number, { transaction: t })
-      if (current.status !== 'draft') throw apiError(409, 'not-a-draft', 'Only a working draft can be edited; start a new draft from this version.')
-      throw apiError(409, 'draft-conflict', 'Someone saved this draft after you opened it. Your edits are kept on screen: reload their version, then apply yours again.', { lockVersion: current.lockVersion })
-    }
-    const versionId = rows[0]!.id as string
+    const { versionId, lockVersion } = await claimDraft(access, tableId, number, { hash, notes: input.notes, lockVersion: input.lockVersion }, t)
     await useDb().query('DELETE FROM version_points WHERE version_id = :versionId', { replacements: { versionId }, transaction: t })
     await insertPoints(versionId, points, t)
-    await audit(event, { orgId: access.org.id, action: 'version.points.save', objectType: 'table_version', objectId: versionId, detail: { tableId, number, points: points.length, contentHash: hash, lockVersion: rows[0]!.lock_version } }, t)
+    await audit(event, { orgId: access.org.id, action: 'version.points.save', objectType: 'table_version', objectId: versionId, detail: { tableId, number, points: points.length, contentHash: hash, lockVersion } }, t)
   })
   return getVersion(access.org.id, tableId, number)
 }
@@ -141,4 +132,22 @@ export async function newDraftFrom(event: H3Event, access: OrgAccess, tableId: s
     return next
   })
   return getVersion(access.org.id, tableId, number)
+}
+
+/**
+ * The save of a working draft's content under the optimistic lock (points or cells alike): bumps the lock version and
+ * records the new content hash and notes, or refuses with 409 (`not-a-draft`, or `draft-conflict` with the current lock
+ * version) and changes nothing. Inside the caller's transaction, which then replaces the content.
+ */
+export async function claimDraft(access: OrgAccess, tableId: string, number: number, save: { hash: string, notes?: string | null, lockVersion: number }, t: Transaction): Promise<{ versionId: string, lockVersion: number }> {
+  const rows = await useDb().query<{ id: string, lock_version: number }>(
+    `UPDATE table_versions SET lock_version = lock_version + 1, content_hash = :hash, notes = coalesce(:notes, notes), updated_at = now()
+     WHERE org_id = :orgId AND table_id = :tableId AND number = :number AND status = 'draft' AND lock_version = :lock RETURNING id, lock_version`,
+    { replacements: { hash: save.hash, notes: save.notes ?? null, orgId: access.org.id, tableId, number, lock: save.lockVersion }, type: QueryTypes.SELECT, transaction: t })
+  if (!rows.length) {
+    const current = await findVersion(access.org.id, tableId, number, { transaction: t })
+    if (current.status !== 'draft') throw apiError(409, 'not-a-draft', 'Only a working draft can be edited; start a new draft from this version.')
+    throw apiError(409, 'draft-conflict', 'Someone saved this draft after you opened it. Your edits are kept on screen: reload their version, then apply yours again.', { lockVersion: current.lockVersion })
+  }
+  return { versionId: rows[0]!.id, lockVersion: rows[0]!.lock_version }
 }

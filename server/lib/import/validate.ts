@@ -15,6 +15,7 @@ export interface ExperienceRow { x: string; exposure: string; deaths: string | n
 export interface Validation { findings: ImportFinding[]; tables: ValidatedTable[]; flaggedRows: number[]; bands: BandSummary | null; experience: ExperienceRow[] | null }
 
 const MAX_FINDINGS = 1000
+const FORMULA = 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.'
 
 export function sortPoints<T extends { x: string }>(points: T[]): T[] {
   return points.map(p => ({ p, x: canonicalDecimal(p.x) })).sort((a, b) => cmpDecimal(a.x, b.x)).map(e => e.p)
@@ -56,7 +57,7 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
   /** An exposure or a deaths count: a plain number (no percentage), at least 0 (an exposure more than 0); null when blank. */
   const count = (r: number, c: number, what: 'exposure' | 'deaths'): string | null | undefined => {
     const cell = cellAt(r, c)
-    if (cell.formula) { add('error', 'formula', r, c, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.'); return undefined }
+    if (cell.formula) { add('error', 'formula', r, c, FORMULA); return undefined }
     if (cell.text === null) return null
     const p = parseNumberText(cell.text)
     if (!p.ok) { add('error', 'not-a-number', r, c, `'${cell.text}' ${p.reason}`); return undefined }
@@ -86,7 +87,7 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
       if (first !== undefined) add('error', 'duplicate-axis', r, m.axisColumn, `the band ${axisCell.text} appears again (first in row ${first + 1})`)
       else { firstRowOf.set(band.from, r); x = band.from }
     }
-    else if (axisCell.formula) add('error', 'formula', r, m.axisColumn, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.')
+    else if (axisCell.formula) add('error', 'formula', r, m.axisColumn, FORMULA)
     else if (axisCell.text === null) add('error', 'axis-blank', r, m.axisColumn, `the ${axisName} is blank but the row has values`)
     else {
       const p = parseNumberText(axisCell.text)
@@ -110,7 +111,7 @@ function createValidator(sheet: StoredSheet, m: ImportMapping) {
     if (m.experience && x !== null && !band) checkExperience(r, x)
     m.columns.forEach((col, i) => {
       const cell = valueCells[i]!
-      if (cell.formula) return add('error', 'formula', r, col.index, 'is a formula; formulas are refused because the stored result may be stale. Replace it with its value.')
+      if (cell.formula) return add('error', 'formula', r, col.index, FORMULA)
       if (cell.text === null) return add('warning', 'value-blank', r, col.index, `no value; this row is left out of "${col.name}"`)
       const p = parseNumberText(cell.text)
       if (!p.ok) return add('error', 'not-a-number', r, col.index, `'${cell.text}' ${p.reason}`)
