@@ -34,3 +34,13 @@ test('a new team signs up: the address first, then from the e-mailed link the or
   await page.waitForURL(/\/orgs\/wrenfield-friendly-society/)
   await expect(page.getByRole('heading', { level: 1, name: 'Tables' })).toBeVisible()
 })
+
+test('sign-in fields wait for the page to be ready: nothing typed is lost, no password goes into the address, the e-mail field gets the focus', async ({ page }) => {
+  // the page as the server sends it, before any script runs: the form's fields are disabled, and it would post
+  const served = await (await page.request.get('/signin')).text()
+  expect(served).toMatch(/<form[^>]*method="post"[^>]*data-testid="signin-form"/)
+  expect(served).toMatch(/<fieldset[^>]*disabled/)
+  await page.goto('/signin')
+  await expect(page.getByLabel('E-mail')).toBeFocused()
+  await expect(page.getByLabel('E-mail')).toBeEnabled()
+})
