@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest'
 import { importMappingSchema } from '#shared/schemas/imports'
 import { suggestColumns } from '~~/server/lib/import/analyse'
 import { validateMapping } from '~~/server/lib/import/validate'
+import { previewTask } from '~~/server/lib/work/tasks/imports'
 import type { StoredSheet } from '~~/server/lib/import/read-workbook'
 
 // invented test data: the checks are about reading, not the values
@@ -45,5 +46,11 @@ describe('experience columns', () => {
     expect(() => mapping({ exposureColumn: 3 })).toThrow(/cannot also be the axis or a value column/)
     expect(() => mapping({ exposureColumn: 1, deathsColumn: 1 })).toThrow(/column of its own/)
     expect(() => importMappingSchema.parse({ ...mapping(), bands: { values: 'totals' } })).toThrow(/single ages/)
+  })
+
+  it('show in the preview in the sheet\'s column order, not the mapping\'s', () => {
+    const p = previewTask({ sheetsJson: JSON.stringify([sheet(ROWS)]), mapping: mapping() })
+    expect(p.columns).toEqual([0, 1, 2, 3])
+    expect(p.rows.find(r => r.row === 2)!.cells).toEqual(['60', '1000', '10', '0.01'])
   })
 })

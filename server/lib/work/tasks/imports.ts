@@ -52,7 +52,9 @@ export function previewTask(input: { sheetsJson: string, mapping: ImportMapping 
   const shown = new Set<number>(v.flaggedRows.slice(0, 500))
   for (let r = m.headerRow + 1; r < sheet.rows.length && r <= m.headerRow + 30; r++) shown.add(r)
   const e = m.experience
+  // in the sheet's own order (A, B, C, D), as the person sees the file, whatever the mapping's order
   const columns = [m.axisColumn, ...m.columns.map(c => c.index), ...(e ? [e.exposureColumn, ...(e.deathsColumn !== undefined ? [e.deathsColumn] : [])] : [])]
+    .sort((a, b) => a - b)
   return {
     bands: v.bands,
     experience: v.experience && { exposures: v.experience.length, deaths: v.experience.filter(r => r.deaths !== null).length },
