@@ -22,6 +22,7 @@ test('an analyst edits a select table as a matrix, compares fills on the two-way
   await expect(page.getByTestId('cell-30-0')).toHaveValue('0.5376')
   await expect(page.getByTestId('cell-31-0')).toHaveAttribute('placeholder', 'to fill')
   await expect(page.getByTestId('cell-31-0')).toHaveValue('')
+  await expect(page.getByTestId('version-1')).toContainText(/\d+ cells/)
   await expect(page.getByTestId('matrix-chart')).toBeVisible()
   await shot(page, 'two-way-matrix')
 
@@ -69,6 +70,10 @@ test('an analyst edits a select table as a matrix, compares fills on the two-way
   await page.getByRole('link', { name: new RegExp(`${name}, version 1`) }).click()
   await expect(page.getByTestId('matrix-heatmap')).toBeVisible()
   await expect(page.getByTestId('saved-fill')).toBeVisible()
+  // blank cells now show the chosen fill's value (grey italics) instead of "to fill", and stay blank
+  await expect(page.getByTestId('cell-31-0')).toHaveAttribute('placeholder', /^\d+(\.\d+)?$/)
+  await expect(page.getByTestId('cell-31-0')).toHaveValue('')
+  await expect(page.getByTestId('cell-30-0')).toHaveValue('0.5376')
   await shot(page, 'two-way-filled')
 })
 
