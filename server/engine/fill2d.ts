@@ -4,6 +4,7 @@ import { exp, quote, roundTo, type Dec, type DecimalCtor } from './decimal'
 import { EngineError } from './errors'
 import { evaluateAscending, type UniformGrid } from './evaluate'
 import { assertAxisInside, parseKnotGrid, parsePairs, resolveAxis, type KnotGrid } from './grid2d'
+import { hermitePieces } from './hermite'
 import type { MethodDefinition } from './methods/method'
 import { GUARD_DIGITS, MAX_PRECISION, MIN_PRECISION, resolvePrecision, workingContext, workingPrecision } from './precision'
 import { methodDefinition, resolveOptions } from './registry'
@@ -44,6 +45,19 @@ function fillLine(axis: Axis, x: Dec[], y: Dec[], xs: Dec[], uniform: UniformGri
   const pp = axis.def.fit(x, onLog ? y.map(v => v.ln()) : y, axis.options, F)
   const raw = evaluateAscending(pp, xs, rule, onLog ? F.precision : digits, uniform)
   return onLog ? raw.map(v => roundTo(exp(v), digits)) : raw
+}
+
+/**
+ * Many lines of the same abscissae by a Hermite method with nonlinear slopes: the values of hermitePieces are affine in the
+ * values and the slopes together (de Boor 2001, ch. IV, the cubic Hermite form), so one set of weights on (y, s) fills each
+ * line after its slopes, which are the method's own. Null for any other method (or one on ln y).
+ */
+function hermiteLines(axis: Axis, x: Dec[], xs: Dec[], uniform: UniformGrid | null, rule: ExtrapolationRule, digits: number, F: DecimalCtor): ((y: Dec[]) => Dec[]) | null {
+  const slopes = axis.def.hermiteSlopes
+  if (!slopes || axis.def.scale === 'log' || x.length < axis.def.minPoints) return null
+  const n = x.length
+  const weights = affineFill(v => evaluateAscending(hermitePieces(x, v.slice(0, n), v.slice(n)), xs, rule, F.precision, uniform), 2 * n, F, digits)
+  return y => weights([...y, ...slopes(x, y)])
 }
 
 /**
@@ -121,9 +135,13 @@ function runPasses(r: Passes, wanted: Pick<Wanted, 'xs' | 'ds' | 'uniformX' | 'u
   // without a transform the last pass rounds to P itself; with one, its values are mapped back and then rounded
   const plain = transform.id === 'none'
   const digits = plain ? P : inner
-  // the same d for every x and a method affine in the data: one set of weights fills every line along d
-  const shared = r.ad.def.affine && wanted.ds.every(ds => ds === wanted.ds[0])
-  const byWeights = shared ? affineFill(y => fillLine(r.ad, grid.ds, y, wanted.ds[0]!, wanted.uniformD, rule, F.precision, F), grid.ds.length, F, digits) : null
+  // the same d for every x and a method affine in the data: one set of weights fills every line along d; a Hermite method
+  // with nonlinear slopes (PCHIP, Akima) likewise by weights on the values and their slopes, when there are more lines than
+  // the weights cost fills
+  const sameD = wanted.ds.every(ds => ds === wanted.ds[0])
+  const byWeights = sameD && r.ad.def.affine
+    ? affineFill(y => fillLine(r.ad, grid.ds, y, wanted.ds[0]!, wanted.uniformD, rule, F.precision, F), grid.ds.length, F, digits)
+    : sameD && wanted.xs.length > 2 * grid.ds.length + 1 ? hermiteLines(r.ad, grid.ds, wanted.ds[0]!, wanted.uniformD, rule, digits, F) : null
   return wanted.xs.map((x, k) => {
     const y = columns.map(c => c[k]!)
     const line = byWeights ? byWeights(y) : fillLine(r.ad, grid.ds, y, wanted.ds[k]!, wanted.uniformD, rule, digits, F)

@@ -49,6 +49,7 @@ export const akima: MethodDefinition = {
   source: 'Akima (1970), "A new method of interpolation and smooth curve fitting based on local procedures", J. ACM 17(4) 589-602; as scipy.interpolate.Akima1DInterpolator (method="akima").',
   summary: 'Once continuously differentiable and local (each slope uses five points); resists overshoot near steps but does not guarantee monotonicity.',
   options: [],
+  hermiteSlopes: akimaSlopes,
   fit(x, y) {
     return hermitePieces(x, y, akimaSlopes(x, y))
   },

@@ -24,6 +24,12 @@ export interface MethodDefinition extends Omit<MethodListing, 'appliesTo' | 'ext
    * number that does not depend on y): a two-way fill may then fill a whole axis by one set of weights.
    */
   affine?: true
+  /**
+   * A cubic Hermite method whose slopes depend on y in a nonlinear way (PCHIP, Akima): its fit is
+   * hermitePieces(x, y, hermiteSlopes(x, y)), whose values are affine in the values and slopes together, so a two-way fill
+   * may fill many lines of the same abscissae by one set of weights on (y, slopes).
+   */
+  hermiteSlopes?(x: Dec[], y: Dec[]): Dec[]
   /** Completes options that depend on the data (a calibration) before the fit; the spec records what it returns. */
   calibrate?(x: Dec[], y: Dec[], options: Record<string, string>, D: DecimalCtor): Record<string, string>
   /** Fit pieces through sorted, distinct x with values y (already on the method's scale). Options are resolved. */

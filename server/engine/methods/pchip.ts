@@ -30,7 +30,8 @@ export function pchipSlopes(x: Dec[], y: Dec[]): Dec[] {
     }
     const w1 = h[k]!.times(2).plus(h[k - 1]!)
     const w2 = h[k]!.plus(h[k - 1]!.times(2))
-    d[k] = w1.plus(w2).div(w1.div(a).plus(w2.div(b)))
+    // the same mean with one division: (w1 + w2) a b / (w1 b + w2 a)
+    d[k] = w1.plus(w2).times(a).times(b).div(w1.times(b).plus(w2.times(a)))
   }
   const n = m.length
   d[0] = endSlope(h[0]!, h[1]!, m[0]!, m[1]!)
@@ -45,6 +46,7 @@ export const pchip: MethodDefinition = {
   source: 'Piecewise cubic Hermite with Fritsch-Butland slopes (Fritsch and Butland 1984; end slopes per Moler, Numerical Computing with MATLAB, 2004, 3.6; as scipy.interpolate.PchipInterpolator).',
   summary: 'Once continuously differentiable; keeps monotone data monotone and never overshoots the neighbouring points; flat where the data turn. Local: a point moves only its neighbourhood.',
   options: [],
+  hermiteSlopes: pchipSlopes,
   fit(x, y) {
     return hermitePieces(x, y, pchipSlopes(x, y))
   },

@@ -62,6 +62,19 @@ describe('fill2d requests', () => {
     }
   })
 
+  it('fills PCHIP and Akima along d by weights on values and slopes (many rows) with the same digits as line by line', () => {
+    const lastD = ds.d[ds.d.length - 1]!
+    for (const method of ['pchip', 'akima'] as const) {
+      for (const extrapolation of ['error', 'flat', 'linear'] as const) {
+        const d = [ds.d[0]!, String((Number(ds.d[0]) + Number(ds.d[1])) / 2), lastD, ...(extrapolation === 'error' ? [] : [String(Number(lastD) + 1.5)])]
+        const request: Fill2DRequest = { ...base, method: { x: { method: 'cubic-natural' }, d: { method } }, extrapolation, grid: { x: { from: '20', to: '60', step: '0.5' }, d } }
+        const onGrid = fill2d(request)
+        const pairs = fill2d({ ...request, grid: undefined, at: onGrid.points.map(p => ({ x: p.x, d: p.d })) })
+        expect(pairs.points, `${method} ${extrapolation}`).toEqual(onGrid.points)
+      }
+    }
+  })
+
   it('refuses knots that do not fill a rectangular grid, naming what is missing or doubled', () => {
     const missing = base.knots.filter(k => !(k.x === '37' && k.d === '2'))
     expect(engineErrorOf(() => fill2d({ ...base, knots: missing })).message)
