@@ -1,12 +1,25 @@
 // The two-way bench's settings and the request they make (pure helpers, auto-imported).
-import type { MethodListing } from '#shared/engine/contract'
+import type { ExtrapolationRule, MethodListing, TransformListing } from '#shared/engine/contract'
+import { extrapolationRulesFor } from '#shared/fills'
+import type { TableKind } from '#shared/tables'
 import type { SavedGridFillDto } from '#shared/types/grid-fills'
 import type { GridCompareInput } from '#shared/schemas/grid-fills'
 import type { CellDto } from '#shared/types/tables'
 
 export interface AxisGrid { from: string, to: string, step: string }
 export interface GridChoice { x: string, d: string }
-export interface GridBenchSettings { x: AxisGrid, d: AxisGrid, ages: string, interest: string, choices: GridChoice[] }
+type GridTransform = GridCompareInput['transform']
+export interface GridBenchSettings { x: AxisGrid, d: AxisGrid, ages: string, interest: string, transform: GridTransform, extrapolation: ExtrapolationRule, choices: GridChoice[] }
+
+/** The transforms a two-way fill takes (the engine's fill2d: not the discount curve's ln P). */
+export function twoWayTransforms(transforms: TransformListing[]): (TransformListing & { id: GridTransform })[] {
+  return transforms.filter((t): t is TransformListing & { id: GridTransform } => t.id !== 'log-discount')
+}
+
+/** The extrapolation rules a two-way fill takes for this kind: no old-age closure (a one-way rule) and no own extension. */
+export function twoWayRules(kind: TableKind): ExtrapolationRule[] {
+  return extrapolationRulesFor(kind).filter(r => r === 'error' || r === 'flat' || r === 'linear')
+}
 
 /** Methods a two-way fill takes: those of the table's kind, without the curve methods (they fill one variable). */
 export function twoWayMethods(methods: MethodListing[], kind: string): MethodListing[] {
@@ -25,6 +38,8 @@ export function defaultGridSettings(cells: CellDto[], saved: SavedGridFillDto | 
     d: g?.d ?? { from: String(Math.min(...ds)), to: String(Math.max(...ds)), step: '1' },
     ages: (saved?.spec.bench.money?.ages ?? rows.slice(1, 3)).join(', '),
     interest: '3',
+    transform: (saved?.spec.select.transform ?? 'none') as GridTransform,
+    extrapolation: saved?.spec.select.extrapolation ?? 'error',
     choices: [...choice, { x: 'linear', d: 'linear' }, { x: 'cubic-natural', d: 'linear' }, { x: 'pchip', d: 'pchip' }]
       .filter((c, i, all) => all.findIndex(o => o.x === c.x && o.d === c.d) === i).slice(0, 3),
   }
@@ -36,7 +51,7 @@ export function gridCompareBody(s: GridBenchSettings, methods: MethodListing[]):
   const ages = s.ages.split(/[,\s]+/).filter(Boolean).map(Number).filter(Number.isInteger)
   const interest = s.interest.trim() ? String(Number(s.interest) / 100) : undefined
   return {
-    grid: { x: s.x, d: s.d }, transform: 'none', extrapolation: 'error',
+    grid: { x: s.x, d: s.d }, transform: s.transform, extrapolation: s.extrapolation,
     choices: s.choices.map(c => ({ x: { method: c.x as never }, d: { method: c.d as never }, label: `${words(c.x)} × ${words(c.d)}` })),
     money: ages.length ? { ages, ...(interest ? { interest } : {}) } : undefined,
   }

@@ -59,6 +59,12 @@ test('an analyst edits a select table as a matrix, compares fills on the two-way
   await expect(page.getByTestId('matrix-heatmap')).toBeVisible()
   await expect(page.getByRole('main').getByText(/qualified actuary/)).toBeVisible()
   await shot(page, 'two-way-bench')
+  // the scale and the rule beyond the given cells are choices too: on ln q, compared again
+  await expect(page.getByTestId('grid-extrapolation')).toHaveValue('error')
+  await page.getByTestId('grid-transform').selectOption('log')
+  await page.getByTestId('grid-compare').click()
+  await expect(page.getByTestId('grid-compare')).toHaveText('Compare')
+  await expect(results).toContainText('Natural cubic spline × Linear')
 
   await page.getByTestId('choose-method').selectOption('Natural cubic spline × Linear')
   await page.getByTestId('choose-rationale').fill('Smooth across entry ages; straight between durations; checks all fine.')
