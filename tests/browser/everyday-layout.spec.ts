@@ -50,6 +50,12 @@ async function look(page: Page, name: string, opts: { dates?: boolean | 'if-any'
   }
 }
 
+/** The table pages listed on the organisation's home (the list rendered first). */
+async function tableLinks(page: Page, org: string): Promise<string[]> {
+  await expect(page.getByTestId('tables-list').locator('a').first()).toBeVisible()
+  return page.getByTestId('tables-list').locator(`a[href^="/orgs/${org}/tables/"]`).evaluateAll(as => [...new Set(as.map(a => a.getAttribute('href')!))])
+}
+
 async function phone(page: Page, email: string) {
   await page.setViewportSize(PHONE)
   await signIn(page, email)
@@ -76,7 +82,7 @@ test.describe('everyday use at phone width', () => {
     await look(page, 'analyst-tables', { dates: true })
 
     // a one-way and a two-way table, with their benches
-    const tables = await page.locator(`main a[href^="/orgs/${org}/tables/"]`).evaluateAll(as => [...new Set(as.map(a => a.getAttribute('href')!))])
+    const tables = await tableLinks(page, org)
     const seen: Record<string, string> = {}
     for (const href of tables) {
       if (seen.bench && seen['grid-bench'] && seen.graduate) break
@@ -128,7 +134,7 @@ test.describe('everyday use at phone width', () => {
     await look(page, 'actuary-reviews', { dates: 'if-any' })
     await page.goto(`/orgs/${org}`)
     await expect(page.locator('main h1').first()).toBeVisible()
-    const tables = await page.locator(`main a[href^="/orgs/${org}/tables/"]`).evaluateAll(as => [...new Set(as.map(a => a.getAttribute('href')!))])
+    const tables = await tableLinks(page, org)
     for (const href of tables) {
       await page.goto(href)
       const diff = page.getByTestId('compare-versions')
@@ -224,12 +230,14 @@ test('print leaves out navigation, buttons and fields, and keeps the caution and
   const org = await phone(page, PEOPLE.analyst)
   await page.setViewportSize({ width: 1000, height: 1200 })
   // an approved version: its status, who submitted and signed it off, its content hash
-  const tables = await page.locator(`main a[href^="/orgs/${org}/tables/"]`).evaluateAll(as => [...new Set(as.map(a => a.getAttribute('href')!))])
+  const tables = await tableLinks(page, org)
   let bench = ''
   for (const href of tables) {
     await page.goto(href)
     await expect(page.locator('main h1').first()).toBeVisible()
-    if (await page.getByText('Signed off by').count()) { bench = (await page.getByTestId('open-bench').getAttribute('href')) ?? ''; break }
+    await expect(page.getByTestId('review-people')).toBeVisible()
+    const link = page.locator('[data-testid=open-bench][href$="/bench"]')
+    if (await page.getByTestId('review-people').getByText('Signed off by').count() && await link.count()) { bench = (await link.getAttribute('href'))!; break }
   }
   expect(bench, 'an approved one-way table with a bench').toBeTruthy()
   const pages: [string, string][] = [['table', page.url()], ['bench', bench], ['audit', `/orgs/${org}/audit`]]
@@ -239,7 +247,7 @@ test('print leaves out navigation, buttons and fields, and keeps the caution and
     await expect(page.locator('main h1').first()).toBeVisible()
     await expect(page.locator('header')).toBeHidden()
     await expect(page.getByRole('note').filter({ hasText: 'qualified actuary' }).first()).toBeVisible()
-    const controls = await page.evaluate(() => Array.from(document.querySelectorAll('button, input, select, textarea, nav, footer a'))
+    const controls = await page.evaluate(() => Array.from(document.querySelectorAll('button, input, select, textarea, nav, footer a, .btn-primary, .btn-quiet, .btn-danger'))
       .filter(el => (el as HTMLElement).offsetParent !== null || el.getClientRects().length > 0).map(el => el.outerHTML.slice(0, 80)))
     expect(controls, `${name} prints no controls`).toEqual([])
     if (name === 'table') {
