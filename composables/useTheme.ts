@@ -5,9 +5,10 @@ export type ThemeChoice = typeof THEME_CHOICES[number]
 export const THEME_KEY = 'kw-theme'
 
 export function useTheme() {
-  const cookie = useCookie<ThemeChoice>(THEME_KEY, { default: () => 'system', maxAge: 400 * 24 * 3600, sameSite: 'lax', path: '/' })
+  // no default: a page never sets the cookie until someone chooses
+  const cookie = useCookie<ThemeChoice | undefined>(THEME_KEY, { maxAge: 400 * 24 * 3600, sameSite: 'lax', path: '/' })
   const systemDark = useState('kw-system-dark', () => false)
-  const choice = computed<ThemeChoice>(() => THEME_CHOICES.includes(cookie.value) ? cookie.value : 'system')
+  const choice = computed<ThemeChoice>(() => cookie.value && THEME_CHOICES.includes(cookie.value) ? cookie.value : 'system')
   const dark = computed(() => choice.value === 'dark' || (choice.value === 'system' && systemDark.value))
   function choose(next: ThemeChoice) {
     cookie.value = next
