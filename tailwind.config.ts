@@ -1,8 +1,12 @@
 import type { Config } from 'tailwindcss'
 
+import { neutral, themePlugin } from './tailwind.theme'
+
 // Knotwork's own design tokens: a warm paper ground, slate ink, a deep
 // lichen-green primary, ochre for attention and a brick red for errors.
 export default {
+  // `dark:` applies under the system's dark setting unless <html> says light, or when <html> says dark
+  darkMode: ['variant', ['@media (prefers-color-scheme: dark) { &:not(.light *) }', '&:is(.dark *)']],
   content: [
     './components/**/*.{vue,ts}',
     './layouts/**/*.vue',
@@ -15,11 +19,9 @@ export default {
   theme: {
     extend: {
       colors: {
-        paper: { DEFAULT: '#f7f5f0', raised: '#fffdf9', sunk: '#efebe3', line: '#dcd6ca' },
-        ink: {
-          900: '#1b2229', 800: '#27313b', 700: '#3a4651', 600: '#52606c',
-          500: '#6b7884', 400: '#8e99a3', 300: '#b4bcc3', 200: '#d5dade', 100: '#eceff1',
-        },
+        // the neutrals swap in dark (tailwind.theme.ts); a field's bg-white turns deep there too
+        paper: { DEFAULT: neutral('paper'), raised: neutral('paper-raised'), sunk: neutral('paper-sunk'), line: neutral('paper-line') },
+        ink: Object.fromEntries([900, 800, 700, 600, 500, 400, 300, 200, 100].map(s => [s, neutral(`ink-${s}`)])),
         lichen: {
           900: '#12332f', 800: '#184440', 700: '#1f5a54', 600: '#2a6f68', 500: '#3b857d',
           400: '#5fa39b', 300: '#8fc2bb', 200: '#c2dfdb', 100: '#e3f0ee', 50: '#f2f8f7',
@@ -49,5 +51,5 @@ export default {
       },
     },
   },
-  plugins: [],
+  plugins: [themePlugin],
 } satisfies Config
