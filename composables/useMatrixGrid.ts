@@ -63,7 +63,11 @@ export function useMatrixGrid(url: Ref<string>, unit: Ref<ValueUnit>) {
     if (!check.success) { failure.value = check.error.issues[0]!.message; return null }
     const text = valuesText(values.value)
     const answer = await putUnderLock(api, `${url.value}/cells`, body, { lockVersion, conflict, failure, saved, saving })
-    if (answer && loaded.value) loaded.value = { id: answer.id, text }
+    if (!answer || !loaded.value) return answer
+    // nothing typed meanwhile: the cells read as stored ('0,6' becomes 0.6); undo steps stay
+    const unchanged = valuesText(values.value) === text
+    if (unchanged) values.value = Object.fromEntries(answer.cells.map(c => [key(c.x, c.d), fromPerUnit(c.y, unit.value)]))
+    loaded.value = { id: answer.id, text: unchanged ? valuesText(values.value) : text }
     return answer
   }
   /** A block copied from a spreadsheet (tab-separated lines), written from cell (r, c) right and down: one undo step. */

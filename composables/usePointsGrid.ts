@@ -58,20 +58,33 @@ export function usePointsGrid(rows: Ref<GridRow[]>, history: UndoHistory<GridRow
     rows.value = next
   }
   function cancelEdit() { editing.value = false; message.value = null }
+  // rows is the grid's v-model: what is set shows in rows.value only after the parent renders, so work on `next`
   function addRow() {
     history.record()
-    rows.value = [...rows.value, { x: '', y: '' }]
-    active.value = { row: rows.value.length - 1, col: 'x' }
-    startEdit('')
+    const next = [...rows.value, { x: '', y: '' }]
+    rows.value = next
+    active.value = { row: next.length - 1, col: 'x' }
+    draft.value = ''
+    editing.value = true
+    message.value = null
   }
   function removeRow() {
     if (!rows.value.length) return
     history.record()
-    rows.value = rows.value.filter((_, i) => i !== active.value.row)
+    const next = rows.value.filter((_, i) => i !== active.value.row)
+    rows.value = next
+    active.value = { row: Math.max(0, Math.min(next.length - 1, active.value.row)), col: active.value.col }
+  }
+  // the rows come back through the v-model: the active cell is kept inside them once they have
+  async function step(go: () => boolean) {
+    editing.value = false
+    if (!go()) return
+    message.value = null
+    await nextTick()
     move(0, 0)
   }
-  function undo() { editing.value = false; if (history.undo()) { move(0, 0); message.value = null } }
-  function redo() { editing.value = false; if (history.redo()) { move(0, 0); message.value = null } }
+  const undo = () => step(history.undo)
+  const redo = () => step(history.redo)
 
   /** A block pasted at the active cell: one column lands in that column, two from the axis column; one undo step. */
   function paste(text: string) {

@@ -25,17 +25,23 @@ function onKeydown(e: KeyboardEvent) {
   }
 }
 
+/** The ids taken now, also on <html data-shortcuts="..."> (browser tests wait for a page's shortcuts there). */
+function updateTaken() {
+  taken.value = [...takers.keys()].filter(k => takers.get(k)!.length)
+  document.documentElement.dataset.shortcuts = taken.value.join(' ')
+}
+
 /** Handles shortcut `id` while the calling component is mounted (and `enabled()` says so). */
 export function useShortcut(id: string, run: Taker['run'], enabled?: () => boolean) {
   const taker: Taker = { run, enabled }
   onMounted(() => {
     if (!installed) { window.addEventListener('keydown', onKeydown); installed = true }
     takers.set(id, [...(takers.get(id) ?? []), taker])
-    taken.value = [...takers.keys()].filter(k => takers.get(k)!.length)
+    updateTaken()
   })
   onBeforeUnmount(() => {
     takers.set(id, (takers.get(id) ?? []).filter(t => t !== taker))
-    taken.value = [...takers.keys()].filter(k => takers.get(k)!.length)
+    updateTaken()
   })
 }
 
