@@ -4,10 +4,17 @@ import type { ValueUnit } from '#shared/tables'
 import type { VersionDto } from '#shared/types/tables'
 import type { GridRow } from './usePointsGrid'
 
-/** Grid rows <-> stored points, and saving a draft under its optimistic lock. */
+/** The rows that hold something, as one text: what "unsaved edits" compares. */
+const rowsText = (rows: GridRow[]) => rows.filter(r => r.x.trim() !== '' || r.y.trim() !== '').map(r => `${r.x.trim()}\t${r.y.trim()}`).join('\n')
+
+/** Grid rows <-> stored points, saving a draft under its optimistic lock, undo history and unsaved edits. */
 export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
   const api = useApi()
   const rows = ref<GridRow[]>([])
+  const history = useUndoHistory(rows)
+  /** The version loaded and the rows as last loaded or saved. */
+  const loaded = ref<{ id: string, text: string } | null>(null)
+  const dirty = computed(() => loaded.value !== null && rowsText(rows.value) !== loaded.value.text)
   const lockVersion = ref(0)
   const conflict = ref(false)
   const failure = ref<string | null>(null)
@@ -18,9 +25,13 @@ export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
     rows.value = v.points.map(p => ({ x: p.x, y: fromPerUnit(p.y, unit.value) }))
     lockVersion.value = v.lockVersion
     conflict.value = false
+    loaded.value = { id: v.id, text: rowsText(rows.value) }
+    history.reset()
   }
+  /** The answer of our own save (its lock is ours already): nothing to load, the grid stays as it is. */
+  const isOwnSave = (v: VersionDto) => v.id === loaded.value?.id && v.lockVersion === lockVersion.value
   function toPoints() {
-    return rows.value.filter(r => r.x.trim() !== '' || r.y.trim() !== '').map((r, i) => {
+    return rows.value.map((r, i) => ({ r, i })).filter(({ r }) => r.x.trim() !== '' || r.y.trim() !== '').map(({ r, i }) => {
       const x = parseNumberText(r.x)
       const y = parseNumberText(r.y)
       if (!x.ok || x.scale !== 1) throw new Error(`Row ${i + 1}: the axis value '${r.x}' ${x.ok ? 'cannot be a percentage' : x.reason}`)
@@ -36,7 +47,10 @@ export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
     } catch (e) { failure.value = (e as Error).message; return null }
     const check = savePointsSchema.safeParse(body)
     if (!check.success) { failure.value = check.error.issues[0]!.message; return null }
-    return putUnderLock(api, `${url.value}/points`, body, { lockVersion, conflict, failure, saved, saving })
+    const text = rowsText(rows.value)
+    const answer = await putUnderLock(api, `${url.value}/points`, body, { lockVersion, conflict, failure, saved, saving })
+    if (answer && loaded.value) loaded.value = { id: answer.id, text }
+    return answer
   }
   /** After a 409: take the newest lock and save what is on screen over it (nothing typed is lost). */
   async function saveMineOnTop() {
@@ -45,5 +59,5 @@ export function useDraftSave(url: Ref<string>, unit: Ref<ValueUnit>) {
     conflict.value = false
     return save()
   }
-  return { rows, lockVersion, conflict, failure, saved, saving, load, save, saveMineOnTop }
+  return { rows, history, dirty, lockVersion, conflict, failure, saved, saving, load, isOwnSave, save, saveMineOnTop }
 }
