@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { METHOD_IDS } from '#shared/engine/contract'
 import type { CompareResponseDto } from '#shared/types/fills'
-import { SERIES_COLOURS, SERIES_MIN_DISTANCE, methodStyle } from '~/utils/series-style'
-import { differenceSeries, forwardSeries, valueSeries } from '~/utils/bench-series'
+import { SERIES_COLOURS, SERIES_MIN_DISTANCE, methodStyle } from '~~/utils/series-style'
+import { differenceSeries, forwardSeries, valueSeries } from '~~/utils/bench-series'
 
 // Colour-vision deficiency simulation: Machado, Oliveira and Fernandes (2009), "A physiologically-based model for
 // simulation of color vision deficiency", IEEE TVCG 15(6), table of matrices at severity 1.0, applied to linear RGB.
