@@ -10,7 +10,7 @@ const hex = (h: string) => [1, 3, 5].map(i => Number.parseInt(h.slice(i, i + 2),
 export const NEUTRALS = {
   light: {
     'paper': '#f7f5f0', 'paper-raised': '#fffdf9', 'paper-sunk': '#efebe3', 'paper-line': '#dcd6ca',
-    'ink-900': '#1b2229', 'ink-800': '#27313b', 'ink-700': '#3a4651', 'ink-600': '#52606c', 'ink-500': '#6b7884',
+    'ink-900': '#1b2229', 'ink-800': '#27313b', 'ink-700': '#3a4651', 'ink-600': '#52606c', 'ink-500': '#5d6974',
     'ink-400': '#8e99a3', 'ink-300': '#b4bcc3', 'ink-200': '#d5dade', 'ink-100': '#eceff1',
   },
   dark: {

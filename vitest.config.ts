@@ -9,7 +9,7 @@ const root = fileURLToPath(new URL('.', import.meta.url))
 // restart; files run one after another.
 // The aliases are Nuxt's own (#shared, ~~), so tests import code the way the app does.
 export default defineConfig({
-  resolve: { alias: { '#shared': `${root}shared`, '~~': root.replace(/\/$/, '') } },
+  resolve: { alias: { '#shared': `${root}shared`, '~~': root.replace(/\/$/, ''), '~': root.replace(/\/$/, '') } },
   test: {
     projects: [
       { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', testTimeout: 60_000 } },

@@ -3,6 +3,9 @@ import { can, type Permission } from '#shared/permissions'
 // Every page except those marked public needs a signed-in person; pages under
 // /orgs/[org] need a membership (404 otherwise) and may name a permission (403).
 export default defineNuxtRouteMiddleware(async (to) => {
+  // A page the server already answered with its error page (a 404 for another organisation's table): the browser shows
+  // that error from the payload. Refusing again while hydrating would raise it during the app's start (a console error).
+  if (import.meta.client && useNuxtApp().isHydrating && useError().value) return
   const workspace = useWorkspaceStore()
   if (to.meta.public) return
   const me = await workspace.load()

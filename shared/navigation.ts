@@ -9,6 +9,7 @@ export const ORG_NAVIGATION: NavEntry[] = [
   { label: 'Audit trail', to: org => `/orgs/${org}/audit`, permission: 'tables:read', testId: 'nav-audit' },
   { label: 'Check a file', to: org => `/orgs/${org}/verify`, permission: 'exports:download', testId: 'nav-verify' },
   { label: 'Import', to: org => `/orgs/${org}/imports/new`, permission: 'tables:edit', testId: 'nav-import' },
+  { label: 'My work', to: org => `/orgs/${org}/my-work`, permission: 'reviews:submit', testId: 'nav-my-work' },
   { label: 'Members', to: org => `/orgs/${org}/members`, permission: 'members:manage', testId: 'nav-members' },
   { label: 'Billing', to: org => `/orgs/${org}/billing`, permission: 'members:manage', testId: 'nav-billing' },
 ]

@@ -1,6 +1,12 @@
 import type { CompareResponseDto } from '#shared/types/fills'
+import { entryStyles, type SeriesStyle } from '~/utils/series-style'
 
-export interface ChartSeries { name: string, points: [number, number][] }
+export interface ChartSeries { name: string, points: [number, number][], style?: SeriesStyle }
+
+/** Each filled method's style by label (utils/series-style.ts): the same in every chart of one comparison. */
+export function comparisonStyles(res: CompareResponseDto): Map<string, SeriesStyle> {
+  return entryStyles(res.result.entries.flatMap(e => (e.ok ? [{ label: e.label, method: e.result.spec.method }] : [])))
+}
 
 // Series for drawing only: decimal strings become floating point here and nowhere else (the grid shows the exact text).
 
@@ -8,7 +14,8 @@ export interface ChartSeries { name: string, points: [number, number][] }
 
 /** Every method that filled, as (x, y) pairs. */
 export function valueSeries(res: CompareResponseDto, scale = 1): ChartSeries[] {
-  return res.result.entries.flatMap(e => (e.ok ? [{ name: e.label, points: e.result.points.map(p => [Number(p.x), Number(p.y) * scale] as [number, number]) }] : []))
+  const styles = comparisonStyles(res)
+  return res.result.entries.flatMap(e => (e.ok ? [{ name: e.label, style: styles.get(e.label), points: e.result.points.map(p => [Number(p.x), Number(p.y) * scale] as [number, number]) }] : []))
 }
 
 /** Each method minus the baseline, point by point. */
@@ -16,8 +23,9 @@ export function differenceSeries(res: CompareResponseDto, baseline: string, scal
   const base = res.result.entries.find(e => e.label === baseline)
   if (!base || !base.ok) return []
   const by = base.result.points.map(p => Number(p.y))
+  const styles = comparisonStyles(res)
   return res.result.entries.flatMap(e => (e.ok && e.label !== baseline
-    ? [{ name: e.label, points: e.result.points.map((p, k) => [Number(p.x), (Number(p.y) - by[k]!) * scale] as [number, number]) }]
+    ? [{ name: e.label, style: styles.get(e.label), points: e.result.points.map((p, k) => [Number(p.x), (Number(p.y) - by[k]!) * scale] as [number, number]) }]
     : []))
 }
 
@@ -32,6 +40,7 @@ export function forwardSeries(res: CompareResponseDto, scale = 1): ChartSeries[]
   const spotDiscount = { 'annual': (t: number, r: number) => (1 + r) ** -t, 'semi-annual': (t: number, r: number) => (1 + r / 2) ** (-2 * t), 'continuous': (t: number, r: number) => Math.exp(-r * t) }[c]
   const discount = (t: number, y: number) => (res.kind === 'discount-factor' ? y : spotDiscount(t, y))
   const forward = { 'annual': (g: number, h: number) => g ** (1 / h) - 1, 'semi-annual': (g: number, h: number) => 2 * (g ** (1 / (2 * h)) - 1), 'continuous': (g: number, h: number) => Math.log(g) / h }[c]
+  const styles = comparisonStyles(res)
   return res.result.entries.flatMap((e) => {
     if (!e.ok) return []
     const pts = e.result.points.map(p => [Number(p.x), Number(p.y)] as const)
@@ -41,7 +50,7 @@ export function forwardSeries(res: CompareResponseDto, scale = 1): ChartSeries[]
       const [t2, y2] = pts[k + 1]!
       if (t2 > t1) out.push([t1, forward(discount(t1, y1) / discount(t2, y2), t2 - t1) * scale])
     }
-    return [{ name: e.label, points: out }]
+    return [{ name: e.label, style: styles.get(e.label), points: out }]
   })
 }
 

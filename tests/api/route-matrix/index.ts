@@ -8,6 +8,7 @@ import { readTokenRoutes } from './read-tokens'
 import { trustRoutes } from './trust'
 import { runsRoutes } from './runs'
 import { twoWayRoutes } from './two-way'
+import { myWorkRoutes } from './my-work'
 import type { RouteExpectation } from './types'
 
 // Each feature adds its own file and spreads it here.
@@ -22,4 +23,5 @@ export const ROUTES: Record<string, RouteExpectation> = {
   ...trustRoutes,
   ...runsRoutes,
   ...twoWayRoutes,
+  ...myWorkRoutes,
 }
